@@ -1,0 +1,258 @@
+// Flat row-major dense matrices and small elementwise/product helpers.
+// Every algorithm in numeric/ works on `Dense` internally (one Float64Array, entry (i, j) at
+// data[i * cols + j]) and converts to and from `Rows` only at its public boundary.
+
+import type { Rows } from './types';
+
+export interface Dense {
+  rows: number;
+  cols: number;
+  /** Row-major storage: entry (i, j) is data[i * cols + j]. */
+  data: Float64Array;
+}
+
+// ---------------------------------------------------------------- Dense level
+
+export function zerosDense(rows: number, cols: number): Dense {
+  return { rows, cols, data: new Float64Array(rows * cols) };
+}
+
+export function identityDense(n: number): Dense {
+  const result = zerosDense(n, n);
+  for (let i = 0; i < n; i++) result.data[i * n + i] = 1;
+  return result;
+}
+
+export function denseFromRows(matrix: Rows): Dense {
+  const rows = matrix.length;
+  const cols = rows === 0 ? 0 : matrix[0].length;
+  const result = zerosDense(rows, cols);
+  for (let i = 0; i < rows; i++) {
+    const row = matrix[i];
+    if (row.length !== cols) throw new Error(`denseFromRows: row ${i} has ${row.length} entries, expected ${cols}`);
+    result.data.set(row, i * cols);
+  }
+  return result;
+}
+
+export function denseToRows(matrix: Dense): Rows {
+  const result: Rows = new Array(matrix.rows);
+  for (let i = 0; i < matrix.rows; i++) {
+    result[i] = Array.from(matrix.data.subarray(i * matrix.cols, (i + 1) * matrix.cols));
+  }
+  return result;
+}
+
+export function copyDense(matrix: Dense): Dense {
+  return { rows: matrix.rows, cols: matrix.cols, data: matrix.data.slice() };
+}
+
+/** Product a·b with the i-k-j loop order so the inner loop streams rows of b and of the result. */
+export function multiplyDense(a: Dense, b: Dense): Dense {
+  if (a.cols !== b.rows) throw new Error(`multiplyDense: ${a.rows}×${a.cols} times ${b.rows}×${b.cols}`);
+  const m = a.rows;
+  const inner = a.cols;
+  const n = b.cols;
+  const result = zerosDense(m, n);
+  const ad = a.data;
+  const bd = b.data;
+  const rd = result.data;
+  for (let i = 0; i < m; i++) {
+    const rowOffset = i * n;
+    for (let k = 0; k < inner; k++) {
+      const aik = ad[i * inner + k];
+      if (aik === 0) continue;
+      const bOffset = k * n;
+      for (let j = 0; j < n; j++) rd[rowOffset + j] += aik * bd[bOffset + j];
+    }
+  }
+  return result;
+}
+
+export function transposeDense(matrix: Dense): Dense {
+  const { rows, cols, data } = matrix;
+  const result = zerosDense(cols, rows);
+  const rd = result.data;
+  for (let i = 0; i < rows; i++) {
+    for (let j = 0; j < cols; j++) rd[j * rows + i] = data[i * cols + j];
+  }
+  return result;
+}
+
+function checkSameShape(a: Dense, b: Dense, operation: string): void {
+  if (a.rows !== b.rows || a.cols !== b.cols) {
+    throw new Error(`${operation}: shapes ${a.rows}×${a.cols} and ${b.rows}×${b.cols} differ`);
+  }
+}
+
+export function addDense(a: Dense, b: Dense): Dense {
+  checkSameShape(a, b, 'addDense');
+  const result = zerosDense(a.rows, a.cols);
+  for (let i = 0; i < a.data.length; i++) result.data[i] = a.data[i] + b.data[i];
+  return result;
+}
+
+export function subtractDense(a: Dense, b: Dense): Dense {
+  checkSameShape(a, b, 'subtractDense');
+  const result = zerosDense(a.rows, a.cols);
+  for (let i = 0; i < a.data.length; i++) result.data[i] = a.data[i] - b.data[i];
+  return result;
+}
+
+export function scaleDense(matrix: Dense, factor: number): Dense {
+  const result = zerosDense(matrix.rows, matrix.cols);
+  for (let i = 0; i < matrix.data.length; i++) result.data[i] = matrix.data[i] * factor;
+  return result;
+}
+
+/** Maximum absolute column sum. */
+export function norm1Dense(matrix: Dense): number {
+  const { rows, cols, data } = matrix;
+  let best = 0;
+  for (let j = 0; j < cols; j++) {
+    let sum = 0;
+    for (let i = 0; i < rows; i++) sum += Math.abs(data[i * cols + j]);
+    if (sum > best || Number.isNaN(sum)) best = sum;
+  }
+  return best;
+}
+
+/** Maximum absolute row sum. */
+export function normInfDense(matrix: Dense): number {
+  const { rows, cols, data } = matrix;
+  let best = 0;
+  for (let i = 0; i < rows; i++) {
+    let sum = 0;
+    for (let j = 0; j < cols; j++) sum += Math.abs(data[i * cols + j]);
+    if (sum > best || Number.isNaN(sum)) best = sum;
+  }
+  return best;
+}
+
+/** Frobenius norm, accumulated with scaling so that huge or tiny entries neither overflow nor underflow. */
+export function normFrobeniusDense(matrix: Dense): number {
+  return scaledNorm2(matrix.data);
+}
+
+/** Euclidean norm of a vector with LAPACK dnrm2-style scaling. */
+export function scaledNorm2(values: ArrayLike<number>, start = 0, end = values.length, stride = 1): number {
+  let scale = 0;
+  let sumOfSquares = 1;
+  for (let i = start; i < end; i += stride) {
+    const value = values[i];
+    if (value !== 0) {
+      const magnitude = Math.abs(value);
+      if (Number.isNaN(magnitude)) return NaN;
+      if (scale < magnitude) {
+        const ratio = scale / magnitude;
+        sumOfSquares = 1 + sumOfSquares * ratio * ratio;
+        scale = magnitude;
+      } else {
+        const ratio = magnitude / scale;
+        sumOfSquares += ratio * ratio;
+      }
+    }
+  }
+  return scale * Math.sqrt(sumOfSquares);
+}
+
+// ---------------------------------------------------------------- Rows level
+
+export function zeros(rows: number, cols: number): Rows {
+  const result: Rows = new Array(rows);
+  for (let i = 0; i < rows; i++) result[i] = new Array<number>(cols).fill(0);
+  return result;
+}
+
+export function identity(n: number): Rows {
+  const result = zeros(n, n);
+  for (let i = 0; i < n; i++) result[i][i] = 1;
+  return result;
+}
+
+export function multiply(a: Rows, b: Rows): Rows {
+  return denseToRows(multiplyDense(denseFromRows(a), denseFromRows(b)));
+}
+
+export function transpose(matrix: Rows): Rows {
+  const rows = matrix.length;
+  const cols = rows === 0 ? 0 : matrix[0].length;
+  const result = zeros(cols, rows);
+  for (let i = 0; i < rows; i++) for (let j = 0; j < cols; j++) result[j][i] = matrix[i][j];
+  return result;
+}
+
+function elementwise(a: Rows, b: Rows, operation: string, combine: (x: number, y: number) => number): Rows {
+  if (a.length !== b.length || (a.length > 0 && a[0].length !== b[0].length)) {
+    throw new Error(`${operation}: shapes differ`);
+  }
+  return a.map((row, i) => row.map((value, j) => combine(value, b[i][j])));
+}
+
+export function add(a: Rows, b: Rows): Rows {
+  return elementwise(a, b, 'add', (x, y) => x + y);
+}
+
+export function subtract(a: Rows, b: Rows): Rows {
+  return elementwise(a, b, 'subtract', (x, y) => x - y);
+}
+
+export function scale(matrix: Rows, factor: number): Rows {
+  return matrix.map((row) => row.map((value) => value * factor));
+}
+
+/** Side-by-side concatenation [A B …]; all blocks must have the same number of rows. */
+export function hstack(...blocks: Rows[]): Rows {
+  if (blocks.length === 0) return [];
+  const rows = blocks[0].length;
+  for (const block of blocks) {
+    if (block.length !== rows) throw new Error('hstack: blocks have different row counts');
+  }
+  const result: Rows = [];
+  for (let i = 0; i < rows; i++) result.push(blocks.flatMap((block) => block[i]));
+  return result;
+}
+
+/** Stacked concatenation [A; B; …]; all blocks must have the same number of columns. */
+export function vstack(...blocks: Rows[]): Rows {
+  const nonEmpty = blocks.filter((block) => block.length > 0);
+  if (nonEmpty.length === 0) return [];
+  const cols = nonEmpty[0][0].length;
+  for (const block of nonEmpty) {
+    if (block[0].length !== cols) throw new Error('vstack: blocks have different column counts');
+  }
+  return nonEmpty.flatMap((block) => block.map((row) => row.slice()));
+}
+
+export function blockDiagonal(...blocks: Rows[]): Rows {
+  const widths = blocks.map((block) => (block.length === 0 ? 0 : block[0].length));
+  const totalRows = blocks.reduce((sum, block) => sum + block.length, 0);
+  const totalCols = widths.reduce((sum, width) => sum + width, 0);
+  const result = zeros(totalRows, totalCols);
+  let rowOffset = 0;
+  let colOffset = 0;
+  blocks.forEach((block, index) => {
+    for (let i = 0; i < block.length; i++) {
+      for (let j = 0; j < widths[index]; j++) result[rowOffset + i][colOffset + j] = block[i][j];
+    }
+    rowOffset += block.length;
+    colOffset += widths[index];
+  });
+  return result;
+}
+
+export function norm1(matrix: Rows): number {
+  return norm1Dense(denseFromRows(matrix));
+}
+
+export function normInf(matrix: Rows): number {
+  return normInfDense(denseFromRows(matrix));
+}
+
+export function normFrobenius(matrix: Rows): number {
+  return normFrobeniusDense(denseFromRows(matrix));
+}
+
+export function isFiniteMatrix(matrix: Rows): boolean {
+  return matrix.every((row) => row.every((value) => Number.isFinite(value)));
+}

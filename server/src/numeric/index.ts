@@ -1,0 +1,7 @@
+// Public entry point of the numeric layer.
+export * from './types';
+export * from './dense';
+export * from './lu';
+// (core exports continue below as files land)
+
+// ---- control-equation solvers (owned separately; added at integration) ----
