@@ -1,0 +1,142 @@
+// Orchestrator: runs the pure analyses on one checked plant or controller and gathers their
+// records and diagnostics. The record shapes below are what every face reads (hover, lens,
+// CLI, JSON, report, export); keep field names stable (docs/json-output.md).
+import type { CheckedController, CheckedPlant, Complex, Diagnostic, Rows } from '../model/types';
+import type { AnalysisSettings } from './settings';
+
+export type Stability = 'stable' | 'marginal' | 'unstable';
+
+export interface ModeReport {
+  value: Complex;
+  naturalFrequency: number; // rad/s
+  dampingRatio: number;
+  timeConstant: number | null; // s; null when the mode does not decay or grow (|Re| ≈ 0)
+  stability: Stability;
+}
+
+export interface TransferFunctionReport {
+  input: string;
+  output: string;
+  numerator: number[]; // highest power of s first
+  denominator: number[];
+  zeros: Complex[];
+  poles: Complex[];
+}
+
+export interface PlantReport {
+  name: string;
+  analysed: boolean;
+  diagnostics: Diagnostic[];
+  eigenvalues: Complex[];
+  modes: ModeReport[];
+  stability: Stability | null;
+  controllable: boolean | null;
+  observable: boolean | null;
+  stabilisable: boolean | null;
+  detectable: boolean | null;
+  uncontrollableModes: { value: Complex; stable: boolean }[];
+  unobservableModes: { value: Complex; stable: boolean }[];
+  /** Distance-like margins: σ_min([A − λI, B]) / ‖[A B]‖ minimised over the eigenvalues. */
+  controllabilityMargin: number | null;
+  observabilityMargin: number | null;
+  transferFunctions: TransferFunctionReport[];
+  invariantZeros: Complex[] | null;
+}
+
+export interface StepMetricsReport {
+  output: string;
+  setpoint: number;
+  finalValue: number | null;
+  riseTime: number | null; // s, 10–90 %
+  settlingTime: number | null; // s, 2 %
+  overshootPercent: number | null;
+  undershootPercent: number | null;
+  steadyStateError: number | null;
+  peakInput: { input: string; value: number; limit: [number, number] | null }[];
+}
+
+export interface StepResponseReport {
+  /** The set-point that was stepped (one tracked output at a time). */
+  steppedOutput: string;
+  time: number[];
+  outputs: { name: string; values: number[] }[];
+  inputs: { name: string; values: number[]; limit: [number, number] | null }[];
+  saturated?: { outputs: { name: string; values: number[] }[]; inputs: { name: string; values: number[] }[] };
+  antiWindup?: { outputs: { name: string; values: number[] }[]; inputs: { name: string; values: number[] }[] };
+  nonlinear?: { outputs: { name: string; values: number[] }[]; inputs: { name: string; values: number[] }[] };
+  metrics: StepMetricsReport;
+}
+
+export interface ControllerReport {
+  name: string;
+  plant: string;
+  designed: boolean;
+  diagnostics: Diagnostic[];
+  method: 'poles' | 'lqr' | 'spec' | null;
+  domain: 'continuous' | 'discrete';
+  samplePeriod: number | null;
+  /** State-feedback gain (inputs × states), u = −K x (+ …). */
+  K: Rows | null;
+  /** Integral gain (inputs × integrators), u = −Kx·x − Ki·ξ, ξ' = r − y. */
+  Ki: Rows | null;
+  /** All closed-loop poles (n, or n + integrators); s for continuous, z for discrete. */
+  closedLoopPoles: Complex[];
+  trackedOutputs: string[];
+  dcGain: Rows | null;
+  prescaler: Rows | null;
+  Nx: Rows | null;
+  Nu: Rows | null;
+  details: Record<string, unknown>;
+  step: StepResponseReport[];
+}
+
+function emptyPlantReport(plant: CheckedPlant): PlantReport {
+  return {
+    name: plant.name,
+    analysed: false,
+    diagnostics: [],
+    eigenvalues: [],
+    modes: [],
+    stability: null,
+    controllable: null,
+    observable: null,
+    stabilisable: null,
+    detectable: null,
+    uncontrollableModes: [],
+    unobservableModes: [],
+    controllabilityMargin: null,
+    observabilityMargin: null,
+    transferFunctions: [],
+    invariantZeros: null,
+  };
+}
+
+export function analyzePlant(plant: CheckedPlant, _settings: AnalysisSettings): PlantReport {
+  return emptyPlantReport(plant);
+}
+
+export function designController(
+  controller: CheckedController,
+  _plant: CheckedPlant | undefined,
+  _settings: AnalysisSettings,
+): ControllerReport {
+  return {
+    name: controller.name,
+    plant: controller.plantName,
+    designed: false,
+    diagnostics: [],
+    method: null,
+    domain: controller.sample ? 'discrete' : 'continuous',
+    samplePeriod: controller.sample?.period ?? null,
+    K: null,
+    Ki: null,
+    closedLoopPoles: [],
+    trackedOutputs: [],
+    dcGain: null,
+    prescaler: null,
+    Nx: null,
+    Nu: null,
+    details: {},
+    step: [],
+  };
+}

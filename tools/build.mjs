@@ -1,0 +1,31 @@
+// Bundles the command-line tool, the language server (and its analysis worker) and the
+// extension client with esbuild into dist/ (not committed). Run by `npm ci` (prepare).
+import { build } from 'esbuild';
+import { existsSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+const root = join(dirname(fileURLToPath(import.meta.url)), '..');
+const entries = [
+  { in: 'server/src/cli/main.ts', out: 'cli' },
+  { in: 'server/src/lsp/main.ts', out: 'server' },
+  { in: 'server/src/lsp/worker.ts', out: 'worker' },
+  { in: 'client/src/extension.ts', out: 'client' },
+];
+
+const missing = entries.filter((entry) => !existsSync(join(root, entry.in)));
+for (const entry of missing) console.warn(`build: ${entry.in} not present yet, skipped`);
+
+await build({
+  absWorkingDir: root,
+  entryPoints: entries.filter((entry) => !missing.includes(entry)),
+  outdir: 'dist',
+  outExtension: { '.js': '.cjs' },
+  bundle: true,
+  platform: 'node',
+  target: 'node20',
+  format: 'cjs',
+  external: ['vscode'],
+  sourcemap: true,
+  logLevel: 'warning',
+});
