@@ -1,0 +1,105 @@
+"""Reference values for the numeric solvers (expm, Lyapunov, Riccati) from SciPy.
+
+Writes test/fixtures/reference/numeric_solvers.json, which is checked in so CI needs no Python.
+Run from the repository root:  python3 test/reference/numeric_solvers.py
+
+Only cases where SciPy's answer is trustworthy are written: every Riccati case is checked for
+stabilisability of (A, B) (PBH test on the unstable eigenvalues), Q is positive definite (so
+every pair is detectable), the Hamiltonian / symplectic spectrum is kept away from the
+imaginary axis / unit circle, and SciPy's own normalised residual must be small.
+"""
+import json
+import os
+
+import numpy as np
+import scipy
+import scipy.linalg as sla
+
+EPS = np.finfo(float).eps
+rng = np.random.default_rng(20261202)
+
+
+def stabilisable(a, b, discrete):
+    n = a.shape[0]
+    for lam in np.linalg.eigvals(a):
+        unstable = abs(lam) >= 1 - 1e-8 if discrete else lam.real >= -1e-8
+        if unstable:
+            pbh = np.hstack([a - lam * np.eye(n), b])
+            if np.linalg.matrix_rank(pbh) < n:
+                return False
+    return True
+
+
+def care_residual(a, b, q, r, x):
+    g = b @ np.linalg.solve(r, b.T)
+    res = a.T @ x + x @ a - x @ g @ x + q
+    den = np.linalg.norm(q) + 2 * np.linalg.norm(a) * np.linalg.norm(x) + np.linalg.norm(x) ** 2 * np.linalg.norm(g)
+    return np.linalg.norm(res) / den
+
+
+def dare_residual(a, b, q, r, x):
+    s = r + b.T @ x @ b
+    res = a.T @ x @ a - x - a.T @ x @ b @ np.linalg.solve(s, b.T @ x @ a) + q
+    den = np.linalg.norm(q) + np.linalg.norm(x) + np.linalg.norm(a) ** 2 * np.linalg.norm(x) * (
+        1 + np.linalg.norm(b) ** 2 * np.linalg.norm(x) * np.linalg.norm(np.linalg.inv(s)))
+    return np.linalg.norm(res) / den
+
+
+def spd(n, scale=1.0):
+    m = rng.standard_normal((n, n))
+    return scale * (m @ m.T / n + 0.5 * np.eye(n))
+
+
+def rows(m):
+    return [[float(v) for v in row] for row in np.atleast_2d(m)]
+
+
+cases = []
+for n in range(2, 13):
+    for m in (1, 2, 3):
+        if m > n:
+            continue
+        for attempt in range(50):
+            a = rng.standard_normal((n, n)) * (1.0 / np.sqrt(n)) * 1.5
+            b = rng.standard_normal((n, m))
+            q = spd(n)
+            r = spd(m)
+            if not (stabilisable(a, b, False) and stabilisable(a, b, True)):
+                continue
+            x_c = sla.solve_continuous_are(a, b, q, r)
+            x_d = sla.solve_discrete_are(a, b, q, r)
+            if care_residual(a, b, q, r, x_c) > 1e3 * EPS * n or dare_residual(a, b, q, r, x_d) > 1e3 * EPS * n:
+                continue
+            k_c = np.linalg.solve(r, b.T @ x_c)
+            k_d = np.linalg.solve(r + b.T @ x_d @ b, b.T @ x_d @ a)
+            if np.max(np.linalg.eigvals(a - b @ k_c).real) >= 0:
+                continue
+            if np.max(np.abs(np.linalg.eigvals(a - b @ k_d))) >= 1:
+                continue
+            # Continuous Lyapunov on a stable shift of A; discrete Lyapunov on a contractive scaling.
+            a_stable = a - (np.max(np.linalg.eigvals(a).real) + 0.5) * np.eye(n)
+            a_schur = a / (np.max(np.abs(np.linalg.eigvals(a))) * 1.25)
+            lyap_c = sla.solve_continuous_lyapunov(a_stable, -q)   # a X + X a^T = -q
+            lyap_d = sla.solve_discrete_lyapunov(a_schur, q)       # a X a^T - X + q = 0
+            t = 0.7
+            cases.append({
+                'n': n, 'm': m,
+                'A': rows(a), 'B': rows(b), 'Q': rows(q), 'R': rows(r),
+                'careX': rows(x_c), 'dareX': rows(x_d),
+                'expmT': t, 'expmAT': rows(sla.expm(a * t)),
+                'lyapContinuousA': rows(a_stable), 'lyapContinuousX': rows(lyap_c),
+                'lyapDiscreteA': rows(a_schur), 'lyapDiscreteX': rows(lyap_d),
+            })
+            break
+
+out = {
+    'generator': 'test/reference/numeric_solvers.py',
+    'scipy': scipy.__version__, 'numpy': np.__version__,
+    'note': 'scipy.linalg solve_continuous_are, solve_discrete_are, expm, solve_continuous_lyapunov, '
+            'solve_discrete_lyapunov on seeded random stabilisable systems; Q, R positive definite.',
+    'cases': cases,
+}
+path = os.path.join(os.path.dirname(__file__), '..', 'fixtures', 'reference', 'numeric_solvers.json')
+with open(path, 'w') as f:
+    json.dump(out, f, separators=(',', ':'))
+print(f'wrote {len(cases)} cases')
