@@ -1,0 +1,73 @@
+import { describe, expect, it } from 'vitest';
+import { analyzeControllability, analyzeObservability, controllabilityStaircase, measuresAllStates } from '../../server/src/control/structure';
+import { multiplyRows, transposeRows } from '../../server/src/control/controlLinearAlgebra';
+
+describe('controllability staircase', () => {
+  it('A = 0₂, B = [1; 0] is uncontrollable (two Jordan chains at one eigenvalue)', () => {
+    const result = analyzeControllability([[0, 0], [0, 0]], [[1], [0]], 'continuous');
+    expect(result.controllable).toBe(false);
+    expect(result.controllableDimension).toBe(1);
+    expect(result.uncontrollableModes).toHaveLength(1);
+    expect(Math.abs(result.uncontrollableModes[0].value.re)).toBeLessThan(1e-12);
+    expect(result.stabilisable).toBe(false); // the uncontrollable mode sits on the axis
+    expect(result.margin).toBeLessThan(1e-12);
+  });
+
+  it('a chain of integrators with input at the end is controllable', () => {
+    const A = [[0, 1, 0], [0, 0, 1], [0, 0, 0]];
+    const result = analyzeControllability(A, [[0], [0], [1]], 'continuous');
+    expect(result.controllable).toBe(true);
+    expect(result.margin).toBeGreaterThan(0.1);
+  });
+
+  it('identifies a stable uncontrollable mode: diag(−1, 2), B = [0; 1] → stabilisable', () => {
+    const result = analyzeControllability([[-1, 0], [0, 2]], [[0], [1]], 'continuous');
+    expect(result.controllable).toBe(false);
+    expect(result.uncontrollableModes[0].value.re).toBeCloseTo(-1, 12);
+    expect(result.uncontrollableModes[0].stable).toBe(true);
+    expect(result.stabilisable).toBe(true);
+  });
+
+  it('detects an uncontrollable mode hidden by an orthogonal change of basis', () => {
+    // diag(−1, 2, 3) with B reaching only the last two states, rotated by a Householder reflector.
+    const v = [1, 2, 3];
+    const vv = 14;
+    const H = v.map((vi, i) => v.map((vj, j) => (i === j ? 1 : 0) - (2 * vi * vj) / vv));
+    const A = multiplyRows(multiplyRows(H, [[-1, 0, 0], [0, 2, 1], [0, 0, 3]]), transposeRows(H));
+    const B = multiplyRows(H, [[0], [0], [1]]);
+    const result = analyzeControllability(A, B, 'continuous');
+    expect(result.controllableDimension).toBe(2);
+    expect(result.uncontrollableModes[0].value.re).toBeCloseTo(-1, 10);
+    const stair = controllabilityStaircase(A, B);
+    // Identity: T orthogonal and Tᵀ A T reproduces the block-triangular form.
+    const TtT = multiplyRows(transposeRows(stair.T), stair.T);
+    TtT.forEach((row, i) => row.forEach((value, j) => expect(value).toBeCloseTo(i === j ? 1 : 0, 12)));
+  });
+
+  it('a complex uncontrollable pair: PBH margin at a complex eigenvalue is ~0', () => {
+    const A = [[0, 1, 0], [-4, 0, 0], [0, 0, -1]];
+    const result = analyzeControllability(A, [[0], [0], [1]], 'continuous');
+    expect(result.controllableDimension).toBe(1);
+    expect(result.uncontrollableModes.map((m) => m.value.im).sort()).toEqual([
+      expect.closeTo(-2, 10),
+      expect.closeTo(2, 10),
+    ]);
+    for (const mode of result.uncontrollableModes) expect(mode.margin).toBeLessThan(1e-12);
+  });
+
+  it('observability by duality; measuresAllStates', () => {
+    const A = [[0, 1], [0, 0]];
+    expect(analyzeObservability(A, [[1, 0]], 'continuous').observable).toBe(true);
+    const velocityOnly = analyzeObservability(A, [[0, 1]], 'continuous');
+    expect(velocityOnly.observable).toBe(false);
+    expect(velocityOnly.detectable).toBe(false);
+    expect(measuresAllStates([[1, 0]], 2)).toBe(false);
+    expect(measuresAllStates([[1, 0], [0, 2]], 2)).toBe(true);
+    expect(measuresAllStates([[1, 1], [2, 2], [3, 3]], 2)).toBe(false);
+  });
+
+  it('discrete domain: an uncontrollable mode at z = 0.5 is stable, at z = 1 it is not', () => {
+    expect(analyzeControllability([[0.5, 0], [0, 2]], [[0], [1]], 'discrete').stabilisable).toBe(true);
+    expect(analyzeControllability([[1, 0], [0, 2]], [[0], [1]], 'discrete').stabilisable).toBe(false);
+  });
+});
