@@ -92,12 +92,38 @@ for n in range(2, 13):
             })
             break
 
+# Generalised eigenvalues (scipy.linalg.eigvals(A, B), LAPACK QZ): regular pencils with B
+# invertible, with B of reduced rank (infinite eigenvalues), and square Rosenbrock pencils
+# [A B; C D] − λ[I 0; 0 0] whose finite eigenvalues are the invariant zeros.
+pencils = []
+for n in range(1, 11):
+    a = rng.standard_normal((n, n))
+    b = rng.standard_normal((n, n))
+    rank = max(0, n - 1 - n // 3)
+    b_singular = rng.standard_normal((n, rank)) @ rng.standard_normal((rank, n)) if rank > 0 else np.zeros((n, n))
+    for kind, bb in (('regular', b), ('singularB', b_singular)):
+        w = sla.eigvals(a, bb, homogeneous_eigvals=True)
+        alpha, beta = w
+        finite = [complex(x / y) for x, y in zip(alpha, beta) if abs(y) > 1e-8 * abs(x) * np.linalg.norm(bb) / max(np.linalg.norm(a), 1e-300)]
+        pencils.append({'kind': kind, 'A': rows(a), 'B': rows(bb), 'infiniteCount': n - len(finite),
+                        'finite': [[z.real, z.imag] for z in finite]})
+for n, m in ((2, 1), (3, 1), (4, 2), (5, 2), (6, 3)):
+    a = rng.standard_normal((n, n)); b = rng.standard_normal((n, m))
+    c = rng.standard_normal((m, n)); d = np.zeros((m, m)) if n % 2 else rng.standard_normal((m, m))
+    big_a = np.block([[a, b], [c, d]])
+    big_e = np.block([[np.eye(n), np.zeros((n, m))], [np.zeros((m, n)), np.zeros((m, m))]])
+    alpha, beta = sla.eigvals(big_a, big_e, homogeneous_eigvals=True)
+    finite = [complex(x / y) for x, y in zip(alpha, beta) if abs(y) > 1e-8 * abs(x)]
+    pencils.append({'kind': 'rosenbrock', 'A': rows(big_a), 'B': rows(big_e), 'infiniteCount': n + m - len(finite),
+                    'finite': [[z.real, z.imag] for z in finite]})
+
 out = {
     'generator': 'test/reference/numeric_solvers.py',
     'scipy': scipy.__version__, 'numpy': np.__version__,
     'note': 'scipy.linalg solve_continuous_are, solve_discrete_are, expm, solve_continuous_lyapunov, '
             'solve_discrete_lyapunov on seeded random stabilisable systems; Q, R positive definite.',
     'cases': cases,
+    'pencils': pencils,
 }
 path = os.path.join(os.path.dirname(__file__), '..', 'fixtures', 'reference', 'numeric_solvers.json')
 with open(path, 'w') as f:
