@@ -2,6 +2,10 @@
 export * from './types';
 export * from './dense';
 export * from './lu';
+export * from './householder';
+export * from './hessenberg';
+export * from './schur';
+export * from './schurReorder';
 // (core exports continue below as files land)
 
 // ---- control-equation solvers (owned separately; added at integration) ----

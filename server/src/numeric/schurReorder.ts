@@ -1,0 +1,310 @@
+// Reordering of a real Schur form: selected eigenvalues are moved to the top-left of T by
+// swapping adjacent 1×1/2×2 diagonal blocks with orthogonal similarity transformations, by the
+// direct swapping method of Bai & Demmel (Linear Algebra Appl. 186, 1993), as in LAPACK
+// dtrexc/dlaexc/dtrsen. Each swap solves the small Sylvester equation T11·X − X·T22 = T12, takes
+// an orthonormal basis of range [−X; I] by Householder QR, and is rejected (the reordering stops and
+// reports it) when the transformed block would not be upper block-triangular to working accuracy.
+
+import { type Dense, copyDense, denseFromRows, denseToRows } from './dense';
+import { generateHouseholder } from './householder';
+import { realSchurDense, type RealSchurOptions, standardizeBlockInPlace, standardizeTwoByTwo } from './schur';
+import type { Complex, Rows } from './types';
+
+const EPS = Number.EPSILON;
+const SAFE_MIN = 2.2250738585072014e-308;
+
+export interface OrderedRealSchurResult {
+  /** Quasi-triangular T with the selected eigenvalues in its leading selectedCount diagonal positions. */
+  T: Rows;
+  /** Orthogonal, A = Z·T·Zᵀ; the first selectedCount columns span the selected invariant subspace. */
+  Z: Rows;
+  /** Number of selected eigenvalues (a complex pair counts two). */
+  selectedCount: number;
+  /** False when the QR iteration did not converge (T, Z are then not a Schur form). */
+  converged: boolean;
+  /**
+   * False when a block swap was rejected because the two blocks' eigenvalues are too close for a
+   * stable swap; the selected eigenvalues are then not all in front and the result is fragile.
+   */
+  reordered: boolean;
+}
+
+/**
+ * Solves T11·X − X·T22 = T12 for the small blocks (n1, n2 ∈ {1, 2}) of the nd×nd matrix d by
+ * Gaussian elimination with complete pivoting on the Kronecker form; pivots smaller than `minimumPivot`
+ * are raised to it, as LAPACK dlasy2 does for (nearly) common eigenvalues.
+ */
+function solveSmallSylvester(d: Float64Array, nd: number, n1: number, n2: number, minimumPivot: number): Float64Array {
+  const size = n1 * n2;
+  const k = new Float64Array(size * size);
+  const rhs = new Float64Array(size);
+  for (let p = 0; p < n1; p++) {
+    for (let q = 0; q < n2; q++) {
+      const row = p * n2 + q;
+      rhs[row] = d[p * nd + n1 + q];
+      for (let r = 0; r < n1; r++) k[row * size + r * n2 + q] += d[p * nd + r];
+      for (let s = 0; s < n2; s++) k[row * size + p * n2 + s] -= d[(n1 + s) * nd + n1 + q];
+    }
+  }
+  const columnOrder = Array.from({ length: size }, (_, i) => i);
+  for (let step = 0; step < size; step++) {
+    let bestRow = step;
+    let bestColumn = step;
+    let best = -1;
+    for (let i = step; i < size; i++) {
+      for (let j = step; j < size; j++) {
+        const magnitude = Math.abs(k[i * size + j]);
+        if (magnitude > best) {
+          best = magnitude;
+          bestRow = i;
+          bestColumn = j;
+        }
+      }
+    }
+    if (bestRow !== step) {
+      for (let j = 0; j < size; j++) {
+        const swap = k[step * size + j];
+        k[step * size + j] = k[bestRow * size + j];
+        k[bestRow * size + j] = swap;
+      }
+      const swap = rhs[step];
+      rhs[step] = rhs[bestRow];
+      rhs[bestRow] = swap;
+    }
+    if (bestColumn !== step) {
+      for (let i = 0; i < size; i++) {
+        const swap = k[i * size + step];
+        k[i * size + step] = k[i * size + bestColumn];
+        k[i * size + bestColumn] = swap;
+      }
+      const swap = columnOrder[step];
+      columnOrder[step] = columnOrder[bestColumn];
+      columnOrder[bestColumn] = swap;
+    }
+    if (Math.abs(k[step * size + step]) < minimumPivot) k[step * size + step] = minimumPivot;
+    const pivot = k[step * size + step];
+    for (let i = step + 1; i < size; i++) {
+      const factor = k[i * size + step] / pivot;
+      if (factor === 0) continue;
+      for (let j = step; j < size; j++) k[i * size + j] -= factor * k[step * size + j];
+      rhs[i] -= factor * rhs[step];
+    }
+  }
+  const solution = new Float64Array(size);
+  for (let i = size - 1; i >= 0; i--) {
+    let sum = rhs[i];
+    for (let j = i + 1; j < size; j++) sum -= k[i * size + j] * solution[j];
+    solution[i] = sum / k[i * size + i];
+  }
+  const x = new Float64Array(size);
+  for (let i = 0; i < size; i++) x[columnOrder[i]] = solution[i];
+  return x;
+}
+
+/** q ← qᵀ·m·q for nd×nd matrices (helper for the swap test). */
+function similarity(q: Float64Array, m: Float64Array, nd: number): Float64Array {
+  const temp = new Float64Array(nd * nd);
+  for (let i = 0; i < nd; i++)
+    for (let j = 0; j < nd; j++) {
+      let sum = 0;
+      for (let p = 0; p < nd; p++) sum += m[i * nd + p] * q[p * nd + j];
+      temp[i * nd + j] = sum;
+    }
+  const result = new Float64Array(nd * nd);
+  for (let i = 0; i < nd; i++)
+    for (let j = 0; j < nd; j++) {
+      let sum = 0;
+      for (let p = 0; p < nd; p++) sum += q[p * nd + i] * temp[p * nd + j];
+      result[i * nd + j] = sum;
+    }
+  return result;
+}
+
+/**
+ * Swaps the adjacent diagonal blocks of sizes n1 (at j1) and n2 (at j1 + n1) of the n×n
+ * quasi-triangular t, updating z. Returns false (and leaves t, z untouched) when the swap is rejected.
+ */
+export function swapAdjacentBlocks(
+  t: Float64Array,
+  n: number,
+  z: Float64Array | null,
+  j1: number,
+  n1: number,
+  n2: number,
+): boolean {
+  const nd = n1 + n2;
+  const d = new Float64Array(nd * nd);
+  for (let i = 0; i < nd; i++) for (let j = 0; j < nd; j++) d[i * nd + j] = t[(j1 + i) * n + j1 + j];
+  let dNormSquared = 0;
+  let dMax = 0;
+  for (const value of d) {
+    dNormSquared += value * value;
+    dMax = Math.max(dMax, Math.abs(value));
+  }
+  const dNorm = Math.sqrt(dNormSquared);
+  const smallNumber = SAFE_MIN / EPS;
+  const threshold = Math.max(20 * EPS * dNorm, smallNumber);
+  const x = solveSmallSylvester(d, nd, n1, n2, Math.max(EPS * dMax, smallNumber));
+
+  // Orthonormal basis of range [−X; I] (the invariant subspace of T22's eigenvalues): Q = H1·…·Hn2.
+  const basis = new Float64Array(nd * n2);
+  for (let p = 0; p < n1; p++) for (let q = 0; q < n2; q++) basis[p * n2 + q] = -x[p * n2 + q];
+  for (let q = 0; q < n2; q++) basis[(n1 + q) * n2 + q] = 1;
+  const q = new Float64Array(nd * nd);
+  for (let i = 0; i < nd; i++) q[i * nd + i] = 1;
+  const v = new Float64Array(nd);
+  for (let column = 0; column < n2; column++) {
+    const length = nd - column;
+    for (let i = 0; i < length; i++) v[i] = basis[(column + i) * n2 + column];
+    const { tau } = generateHouseholder(v, length);
+    if (tau === 0) continue;
+    for (let j = column + 1; j < n2; j++) {
+      let sum = 0;
+      for (let i = 0; i < length; i++) sum += v[i] * basis[(column + i) * n2 + j];
+      sum *= tau;
+      for (let i = 0; i < length; i++) basis[(column + i) * n2 + j] -= sum * v[i];
+    }
+    for (let i = 0; i < nd; i++) {
+      let sum = 0;
+      for (let p = 0; p < length; p++) sum += q[i * nd + column + p] * v[p];
+      sum *= tau;
+      for (let p = 0; p < length; p++) q[i * nd + column + p] -= sum * v[p];
+    }
+  }
+
+  // Weak stability test: the swapped-out block must vanish to working accuracy.
+  const swapped = similarity(q, d, nd);
+  let lowerLeft = 0;
+  for (let i = n2; i < nd; i++) for (let j = 0; j < n2; j++) lowerLeft = Math.max(lowerLeft, Math.abs(swapped[i * nd + j]));
+  if (!(lowerLeft <= threshold)) return false;
+  // Strong stability test: with that block zeroed, transforming back must reproduce D.
+  for (let i = n2; i < nd; i++) for (let j = 0; j < n2; j++) swapped[i * nd + j] = 0;
+  const qt = new Float64Array(nd * nd);
+  for (let i = 0; i < nd; i++) for (let j = 0; j < nd; j++) qt[i * nd + j] = q[j * nd + i];
+  const back = similarity(qt, swapped, nd);
+  let backError = 0;
+  for (let i = 0; i < nd * nd; i++) backError += (back[i] - d[i]) ** 2;
+  if (!(Math.sqrt(backError) <= threshold)) return false;
+
+  // Accept: rows j1.. ← Qᵀ·rows, columns j1.. ← columns·Q, Z ← Z·Q.
+  const rowBlock = new Float64Array(nd);
+  for (let j = j1; j < n; j++) {
+    for (let i = 0; i < nd; i++) rowBlock[i] = t[(j1 + i) * n + j];
+    for (let i = 0; i < nd; i++) {
+      let sum = 0;
+      for (let p = 0; p < nd; p++) sum += q[p * nd + i] * rowBlock[p];
+      t[(j1 + i) * n + j] = sum;
+    }
+  }
+  const applyRight = (m: Float64Array, rowCount: number) => {
+    for (let i = 0; i < rowCount; i++) {
+      const offset = i * n + j1;
+      for (let p = 0; p < nd; p++) rowBlock[p] = m[offset + p];
+      for (let j = 0; j < nd; j++) {
+        let sum = 0;
+        for (let p = 0; p < nd; p++) sum += rowBlock[p] * q[p * nd + j];
+        m[offset + j] = sum;
+      }
+    }
+  };
+  applyRight(t, j1 + nd);
+  if (z) applyRight(z, n);
+  for (let i = n2; i < nd; i++) for (let j = 0; j < n2; j++) t[(j1 + i) * n + j1 + j] = 0;
+  if (n1 === 1 && n2 === 1) t[(j1 + 1) * n + j1] = 0;
+  // Restore the standard form of the moved 2×2 blocks.
+  if (n2 === 2) standardizeBlockInPlace(t, n, j1, z);
+  if (n1 === 2) standardizeBlockInPlace(t, n, j1 + n2, z);
+  return true;
+}
+
+function blockSizeAt(t: Float64Array, n: number, k: number): number {
+  return k + 1 < n && t[(k + 1) * n + k] !== 0 ? 2 : 1;
+}
+
+function blockEigenvalue(t: Float64Array, n: number, k: number, size: number): Complex {
+  if (size === 1) return { re: t[k * n + k], im: 0 };
+  const form = standardizeTwoByTwo(t[k * n + k], t[k * n + k + 1], t[(k + 1) * n + k], t[(k + 1) * n + k + 1]);
+  return form.eigenvalue1.im >= 0 ? form.eigenvalue1 : form.eigenvalue2;
+}
+
+/**
+ * Reorders a real Schur form in place so the blocks whose eigenvalue satisfies selectFirst come
+ * first (a complex pair is judged by its member with positive imaginary part).
+ */
+export function reorderRealSchurDense(
+  T: Dense,
+  Z: Dense | null,
+  selectFirst: (lambda: Complex) => boolean,
+): { selectedCount: number; reordered: boolean } {
+  const n = T.rows;
+  const t = T.data;
+  const z = Z ? Z.data : null;
+  let selectedCount = 0;
+  let reordered = true;
+  for (let k = 0; k < n; ) {
+    const size = blockSizeAt(t, n, k);
+    if (selectFirst(blockEigenvalue(t, n, k, size))) {
+      let here = k;
+      while (here > selectedCount) {
+        const previous = here - 2 >= selectedCount && t[(here - 1) * n + here - 2] !== 0 ? 2 : 1;
+        if (!swapAdjacentBlocks(t, n, z, here - previous, previous, size)) {
+          reordered = false;
+          break;
+        }
+        here -= previous;
+      }
+      if (!reordered) {
+        // Count what really sits in front so the caller sees a consistent selectedCount.
+        return { selectedCount, reordered };
+      }
+      selectedCount += size;
+    }
+    k += size;
+  }
+  return { selectedCount, reordered };
+}
+
+/** Reorders a given real Schur pair (T, Z) without modifying the inputs. */
+export function reorderRealSchur(
+  T: Rows,
+  Z: Rows,
+  selectFirst: (lambda: Complex) => boolean,
+): { T: Rows; Z: Rows; selectedCount: number; reordered: boolean } {
+  const tDense = denseFromRows(T);
+  const zDense = denseFromRows(Z);
+  const outcome = reorderRealSchurDense(tDense, zDense, selectFirst);
+  return { T: denseToRows(tDense), Z: denseToRows(zDense), ...outcome };
+}
+
+/**
+ * Real Schur form A = Z·T·Zᵀ with the eigenvalues satisfying selectFirst (e.g. Re λ < 0) in the
+ * leading block, so the first selectedCount columns of Z are an orthonormal basis of the
+ * corresponding invariant subspace.
+ */
+export function orderedRealSchurDense(
+  A: Dense,
+  selectFirst: (lambda: Complex) => boolean,
+  options: RealSchurOptions = {},
+): { T: Dense; Z: Dense; selectedCount: number; converged: boolean; reordered: boolean } {
+  const schur = realSchurDense(copyDense(A), options);
+  if (!schur.converged) {
+    return { T: schur.T, Z: schur.Z, selectedCount: 0, converged: false, reordered: false };
+  }
+  const outcome = reorderRealSchurDense(schur.T, schur.Z, selectFirst);
+  return { T: schur.T, Z: schur.Z, converged: true, ...outcome };
+}
+
+export function orderedRealSchur(
+  A: Rows,
+  selectFirst: (lambda: Complex) => boolean,
+  options: RealSchurOptions = {},
+): OrderedRealSchurResult {
+  const result = orderedRealSchurDense(denseFromRows(A), selectFirst, options);
+  return {
+    T: denseToRows(result.T),
+    Z: denseToRows(result.Z),
+    selectedCount: result.selectedCount,
+    converged: result.converged,
+    reordered: result.reordered,
+  };
+}
