@@ -67,6 +67,32 @@ export interface StepResponseReport {
   metrics: StepMetricsReport;
 }
 
+/**
+ * Everything controller code needs, in one record (read by the C/JSON export and the report).
+ * Control law, in physical units (x0, u0, y0 are zero for plants that were not linearised):
+ *   u = u0 − K(x̂ − x0) − Ki·ξ + N(r − y0),   ξ[k+1] = ξ[k] + T(r − y)   (ξ' = r − y in continuous time)
+ * Estimator, predictor form: x̂[k+1] = Φx̂[k] + Γ(u[k] − u0) + L(y[k] − y0 − C x̂[k] − D(u[k] − u0)), with x̂ in
+ * deviation variables; current form: x̄ predicted as above with gain 0, then x̂[k] = x̄[k] + L(y[k] − y0 − C x̄[k]).
+ */
+export interface ImplementationReport {
+  domain: 'continuous' | 'discrete';
+  samplePeriod: number | null;
+  states: string[];
+  inputs: string[];
+  outputs: string[];
+  trackedOutputs: string[];
+  integratedOutputs: string[];
+  K: Rows;
+  Ki: Rows | null;
+  N: Rows | null;
+  Nx: Rows | null;
+  Nu: Rows | null;
+  observer: { form: 'predictor' | 'current'; L: Rows; Phi: Rows; Gamma: Rows; C: Rows; D: Rows } | null;
+  x0: number[];
+  u0: number[];
+  y0: number[];
+}
+
 export interface ControllerReport {
   name: string;
   plant: string;
@@ -88,6 +114,7 @@ export interface ControllerReport {
   Nu: Rows | null;
   details: Record<string, unknown>;
   step: StepResponseReport[];
+  implementation: ImplementationReport | null;
 }
 
 function emptyPlantReport(plant: CheckedPlant): PlantReport {
@@ -138,5 +165,6 @@ export function designController(
     Nu: null,
     details: {},
     step: [],
+    implementation: null,
   };
 }
