@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { denseFromRows, multiply, norm1, subtract, identity, normFrobenius, hstack, vstack, blockDiagonal, transpose } from '../../server/src/numeric/dense';
 import { determinant, inverse, luFactor, solveComplexLinear, solveLinear } from '../../server/src/numeric/lu';
-import { seededMatrix } from './helpers';
+import { seededMatrix } from './coreTestMatrices';
 
 const EPS = Number.EPSILON;
 

@@ -4,7 +4,7 @@ import { hessenbergDecomposition } from '../../server/src/numeric/hessenberg';
 import { realSchur } from '../../server/src/numeric/schur';
 import { orderedRealSchur } from '../../server/src/numeric/schurReorder';
 import type { Complex, Rows } from '../../server/src/numeric/types';
-import { seededMatrix } from './helpers';
+import { seededMatrix } from './coreTestMatrices';
 
 const EPS = Number.EPSILON;
 
