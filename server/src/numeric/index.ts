@@ -6,6 +6,8 @@ export * from './householder';
 export * from './hessenberg';
 export * from './schur';
 export * from './schurReorder';
+export * from './balance';
+export * from './eigenvectors';
 // (core exports continue below as files land)
 
 // ---- control-equation solvers (owned separately; added at integration) ----

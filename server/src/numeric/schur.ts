@@ -140,7 +140,7 @@ export function standardizeTwoByTwo(a0: number, b0: number, c0: number, d0: numb
     cs,
     sn,
     eigenvalue1: { re: a, im: imaginary },
-    eigenvalue2: { re: d, im: -imaginary },
+    eigenvalue2: { re: d, im: imaginary === 0 ? 0 : -imaginary },
   };
 }
 

@@ -1,0 +1,109 @@
+import { describe, expect, it } from 'vitest';
+import { balance } from '../../server/src/numeric/balance';
+import { normFrobenius } from '../../server/src/numeric/dense';
+import { eigenDecomposition, eigenvalues, eigenvaluesWithStatus, sortComplex } from '../../server/src/numeric/eigenvectors';
+import type { Complex, ComplexRows, Rows } from '../../server/src/numeric/types';
+import { seededMatrix } from './coreTestMatrices';
+
+const EPS = Number.EPSILON;
+
+/** max_j ‖A·v_j − λ_j·v_j‖₂ for complex eigenvectors stored column-wise. */
+function eigenResidual(A: Rows, values: Complex[], vectors: ComplexRows): number {
+  const n = A.length;
+  let worst = 0;
+  for (let j = 0; j < n; j++) {
+    let sum = 0;
+    for (let i = 0; i < n; i++) {
+      let re = 0;
+      let im = 0;
+      for (let k = 0; k < n; k++) {
+        re += A[i][k] * vectors.re[k][j];
+        im += A[i][k] * vectors.im[k][j];
+      }
+      re -= values[j].re * vectors.re[i][j] - values[j].im * vectors.im[i][j];
+      im -= values[j].re * vectors.im[i][j] + values[j].im * vectors.re[i][j];
+      sum += re * re + im * im;
+    }
+    worst = Math.max(worst, Math.sqrt(sum));
+  }
+  return worst;
+}
+
+function columnNorms(vectors: ComplexRows): number[] {
+  const n = vectors.re.length;
+  return Array.from({ length: n }, (_, j) => Math.sqrt(vectors.re.reduce((s, row, i) => s + row[j] ** 2 + vectors.im[i][j] ** 2, 0)));
+}
+
+describe('eigenvalues and eigenvectors', () => {
+  it.each([1, 2, 3, 6, 15, 40])('satisfy A·V = V·Λ for a random matrix of order %i', (n) => {
+    const A = seededMatrix(n, n, 500 + n);
+    const { values, vectors, converged } = eigenDecomposition(A);
+    expect(converged).toBe(true);
+    expect(eigenResidual(A, values, vectors)).toBeLessThan(50 * n * EPS * normFrobenius(A));
+    for (const norm of columnNorms(vectors)) expect(norm).toBeCloseTo(1, 13);
+    expect(values).toEqual(sortComplex(values));
+    // Same spectrum from the eigenvalue-only path.
+    const alone = eigenvalues(A);
+    alone.forEach((lambda, i) => {
+      expect(Math.abs(lambda.re - values[i].re)).toBeLessThan(1e-10);
+      expect(Math.abs(lambda.im - values[i].im)).toBeLessThan(1e-10);
+    });
+  });
+
+  it('sorts by real part then imaginary part', () => {
+    const values = eigenvalues([[0, 1, 0], [-1, 0, 0], [0, 0, -3]]);
+    expect(values.map((v) => [v.re, v.im])).toEqual([[-3, 0], [0, -1], [0, 1]]);
+  });
+
+  it('does not fail on a defective Jordan block (vectors nearly parallel, residual still small)', () => {
+    const jordan = [[-1, 1, 0], [0, -1, 1], [0, 0, -1]];
+    const { values, vectors, converged } = eigenDecomposition(jordan);
+    expect(converged).toBe(true);
+    for (const lambda of values) {
+      expect(lambda.re).toBe(-1);
+      expect(lambda.im).toBe(0);
+    }
+    expect(eigenResidual(jordan, values, vectors)).toBeLessThan(1e-6);
+    for (const norm of columnNorms(vectors)) expect(norm).toBeCloseTo(1, 13);
+    const zeroJordan = [[0, 1], [0, 0]];
+    const zero = eigenDecomposition(zeroJordan);
+    expect(zero.vectors.re.flat().every(Number.isFinite)).toBe(true);
+  });
+
+  it('balancing recovers eigenvalues of a matrix scaled over 1e-12…1e12', () => {
+    // D·B·D⁻¹ with B = companion-like matrix of known spectrum {−1, −2, −3, −4} (roots of
+    // (s+1)(s+2)(s+3)(s+4) = s⁴ + 10s³ + 35s² + 50s + 24) and D = diag(1e-12, 1e-4, 1e4, 1e12).
+    const B = [[-10, -35, -50, -24], [1, 0, 0, 0], [0, 1, 0, 0], [0, 0, 1, 0]];
+    const d = [1e-12, 1e-4, 1e4, 1e12];
+    const A = B.map((row, i) => row.map((value, j) => (d[i] * value) / d[j]));
+    const values = eigenvalues(A);
+    [-4, -3, -2, -1].forEach((expected, i) => {
+      expect(values[i].re).toBeCloseTo(expected, 8);
+      expect(values[i].im).toBe(0);
+    });
+    const { scaled, scaling } = balance(A);
+    expect(normFrobenius(scaled)).toBeLessThan(1e3);
+    for (const factor of scaling) expect(Math.log2(factor)).toBe(Math.round(Math.log2(factor)));
+    const { values: vals, vectors } = eigenDecomposition(A);
+    // Residual relative to ‖A‖ would be meaningless here; check each column's scaled residual.
+    const residual = eigenResidual(scaled, vals, {
+      re: vectors.re.map((row, i) => row.map((v) => v / scaling[i])),
+      im: vectors.im.map((row, i) => row.map((v) => v / scaling[i])),
+    });
+    const smallestColumn = Math.min(...columnNorms({
+      re: vectors.re.map((row, i) => row.map((v) => v / scaling[i])),
+      im: vectors.im.map((row, i) => row.map((v) => v / scaling[i])),
+    }));
+    expect(residual / smallestColumn).toBeLessThan(1e-8);
+  });
+
+  it('reports non-convergence when the sweep budget is too small', () => {
+    const outcome = eigenvaluesWithStatus(seededMatrix(20, 20, 4), { maxSweeps: 2 });
+    expect(outcome.converged).toBe(false);
+    expect(eigenDecomposition(seededMatrix(20, 20, 4), { maxSweeps: 2 }).converged).toBe(false);
+  });
+
+  it('rejects non-finite input without throwing', () => {
+    expect(eigenvaluesWithStatus([[NaN, 0], [0, 1]]).converged).toBe(false);
+  });
+});
