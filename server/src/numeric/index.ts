@@ -8,6 +8,9 @@ export * from './schur';
 export * from './schurReorder';
 export * from './balance';
 export * from './eigenvectors';
+export * from './qr';
+export * from './svd';
+export * from './rank';
 // (core exports continue below as files land)
 
 // ---- control-equation solvers (owned separately; added at integration) ----
