@@ -1,0 +1,145 @@
+// The response panel: one webview per controller, fed with the server's controller record and
+// refreshed when the document's analysis changes. Strict Content-Security-Policy with a nonce.
+import { randomBytes } from 'node:crypto';
+import * as vscode from 'vscode';
+import type { ControllerDataResult, ControllerRef } from '../protocol';
+import type { PanelReply, ReportMessage } from './messages';
+
+export type FetchControllerData = (ref: ControllerRef) => Promise<ControllerDataResult>;
+
+export const responsePanelViewType = 'loopwright.response';
+
+export class ResponsePanels implements vscode.Disposable {
+  private readonly open = new Map<string, ResponsePanel>();
+
+  constructor(
+    private readonly extensionUri: vscode.Uri,
+    private readonly fetch: FetchControllerData,
+  ) {}
+
+  async show(ref: ControllerRef): Promise<void> {
+    const key = `${ref.uri}#${ref.controller}`;
+    let panel = this.open.get(key);
+    if (panel) {
+      panel.reveal();
+    } else {
+      panel = new ResponsePanel(this.extensionUri, ref, this.fetch, () => this.open.delete(key));
+      this.open.set(key, panel);
+    }
+    await panel.refresh();
+  }
+
+  /** Re-requests the data of every panel showing a controller of this document. */
+  refreshDocument(uri: string): void {
+    for (const panel of this.open.values()) if (panel.ref.uri === uri) void panel.refresh();
+  }
+
+  dispose(): void {
+    for (const panel of [...this.open.values()]) panel.dispose();
+    this.open.clear();
+  }
+}
+
+class ResponsePanel {
+  private readonly webview: vscode.WebviewPanel;
+  private ready = false;
+  private pending: ReportMessage | undefined;
+  private generation = 0;
+
+  constructor(
+    extensionUri: vscode.Uri,
+    readonly ref: ControllerRef,
+    private readonly fetch: FetchControllerData,
+    onDispose: () => void,
+  ) {
+    const dist = vscode.Uri.joinPath(extensionUri, 'dist');
+    this.webview = vscode.window.createWebviewPanel(
+      responsePanelViewType,
+      `Response: ${ref.controller}`,
+      { viewColumn: vscode.ViewColumn.Beside, preserveFocus: true },
+      { enableScripts: true, localResourceRoots: [dist], retainContextWhenHidden: false },
+    );
+    this.webview.iconPath = vscode.Uri.joinPath(extensionUri, 'media', 'icon.png');
+    this.webview.webview.html = panelHtml(this.webview.webview, dist, ref.controller);
+    this.webview.webview.onDidReceiveMessage((reply: PanelReply) => {
+      if (reply.type === 'ready') {
+        this.ready = true;
+        if (this.pending) void this.webview.webview.postMessage(this.pending);
+      }
+    });
+    this.webview.onDidDispose(onDispose);
+  }
+
+  reveal(): void {
+    this.webview.reveal(undefined, true);
+  }
+
+  async refresh(): Promise<void> {
+    const generation = ++this.generation;
+    let message: ReportMessage;
+    try {
+      const result = await this.fetch(this.ref);
+      if (generation !== this.generation) return; // a newer refresh is under way
+      message = {
+        type: 'report',
+        title: `Response: ${this.ref.controller}`,
+        report: result.report,
+        note: noteFor(result, this.ref.controller),
+      };
+    } catch (error) {
+      if (generation !== this.generation) return;
+      message = {
+        type: 'report',
+        title: `Response: ${this.ref.controller}`,
+        report: null,
+        note: `The language server did not answer: ${error instanceof Error ? error.message : String(error)}`,
+      };
+    }
+    this.pending = message;
+    if (this.ready) await this.webview.webview.postMessage(message);
+  }
+
+  dispose(): void {
+    this.webview.dispose();
+  }
+}
+
+function noteFor(result: ControllerDataResult, controller: string): string | undefined {
+  if (!result.report) return `This document has no controller named “${controller}” any more.`;
+  if (result.skipped) return `Analysis skipped: ${result.skipped.detail}.`;
+  if (!result.report.designed) return `Controller “${controller}” is not designed yet; see the problems listed for it.`;
+  return undefined;
+}
+
+function panelHtml(webview: vscode.Webview, dist: vscode.Uri, controller: string): string {
+  const nonce = randomBytes(16).toString('base64');
+  const script = webview.asWebviewUri(vscode.Uri.joinPath(dist, 'webview.js'));
+  const style = webview.asWebviewUri(vscode.Uri.joinPath(dist, 'webview.css'));
+  const csp = [
+    "default-src 'none'",
+    `img-src ${webview.cspSource} data:`,
+    `style-src ${webview.cspSource} 'nonce-${nonce}'`,
+    `font-src ${webview.cspSource}`,
+    `script-src 'nonce-${nonce}'`,
+  ].join('; ');
+  const title = escapeHtml(`Response: ${controller}`);
+  return `<!DOCTYPE html>
+<html lang="en">
+<head>
+<meta charset="UTF-8">
+<meta http-equiv="Content-Security-Policy" content="${csp}">
+<meta name="viewport" content="width=device-width, initial-scale=1.0">
+<link rel="stylesheet" nonce="${nonce}" href="${style}">
+<title>${title}</title>
+</head>
+<body>
+<p id="status" role="status" hidden></p>
+<main id="plots" aria-label="${title}"></main>
+<script nonce="${nonce}" src="${script}"></script>
+</body>
+</html>`;
+}
+
+function escapeHtml(text: string): string {
+  return text.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
+}
