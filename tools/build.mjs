@@ -29,3 +29,20 @@ await build({
   sourcemap: true,
   logLevel: 'warning',
 });
+
+// The response panel's script and styles run inside a webview (a browser context): dist/webview.js + .css.
+const webviewEntry = 'client/src/panel/webview.ts';
+if (existsSync(join(root, webviewEntry))) {
+  await build({
+    absWorkingDir: root,
+    entryPoints: { webview: webviewEntry },
+    outdir: 'dist',
+    bundle: true,
+    platform: 'browser',
+    target: 'es2022',
+    format: 'iife',
+    minify: true,
+    sourcemap: true,
+    logLevel: 'warning',
+  });
+}
