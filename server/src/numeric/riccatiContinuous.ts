@@ -1,0 +1,389 @@
+// Continuous-time algebraic Riccati equation
+//   AᵀX + XA − (XB + N)R⁻¹(BᵀX + Nᵀ) + Q = 0
+// by the Schur method of Laub, "A Schur method for solving algebraic Riccati equations", IEEE
+// Trans. Automat. Control 24(6), 1979: the stable invariant subspace [U11; U21] of the Hamiltonian
+// matrix from an ordered real Schur form gives X = U21·U11⁻¹. The matrix sign function (Roberts
+// 1980) is the fallback when the Schur route does not converge. The result is refined by
+// Newton–Kleinman steps (Kleinman, "On an iterative technique for Riccati equation computations",
+// IEEE Trans. Automat. Control 13(1), 1968) in defect-correction form, each a Lyapunov solve on the
+// closed loop, for as long as the residual keeps decreasing (at most 10 steps).
+
+import {
+  type Dense,
+  denseFromRows,
+  denseToRows,
+  identityDense,
+  multiplyDense,
+  normFrobeniusDense,
+  transposeDense,
+  zerosDense,
+} from './dense';
+import { luFactor, luSolveDense, reciprocalConditionEstimate } from './lu';
+import { solveLyapunovContinuousDense } from './lyapunov';
+import { matrixSignDense } from './matrixSign';
+import { eigenvaluesOfQuasiTriangular, realSchurDense } from './schur';
+import { orderedRealSchurDense } from './schurReorder';
+import type { Complex, Rows } from './types';
+
+const EPS = Number.EPSILON;
+const MAX_NEWTON_STEPS = 10;
+
+export type RiccatiFailure =
+  | 'not-stabilisable'
+  | 'imaginary-axis-eigenvalues'
+  | 'unit-circle-eigenvalues'
+  | 'r-not-positive-definite'
+  | 'no-convergence'
+  | 'not-symmetric-solution';
+
+export interface RiccatiSolution {
+  X: Rows;
+  /** Optimal state-feedback gain (u = −K·x). */
+  gain: Rows;
+  /** Normalised residual (formula documented at each solver). */
+  residual: number;
+  closedLoopEigenvalues: Complex[];
+  ok: boolean;
+  failure?: RiccatiFailure;
+  /** Refinement steps actually kept. */
+  newtonSteps: number;
+  /**
+   * First-order relative condition estimate of X: ‖Ω⁻¹‖·(‖Q̄‖ + 2‖Ā‖‖X‖ + ‖G‖‖X‖²)/‖X‖ for the
+   * continuous case, with Ω the closed-loop Lyapunov (resp. Stein) operator; ‖Ω⁻¹‖ = ‖Ω⁻¹(I)‖₂
+   * exactly because Ω⁻¹ maps positive semidefinite matrices to positive semidefinite ones
+   * (Byers 1985; Kenney & Hewer 1990). Infinity when it cannot be formed.
+   */
+  conditionEstimate: number;
+}
+
+// ------------------------------------------------------------------ shared helpers (also used by the discrete solver)
+
+export function symmetrisedDense(M: Dense): Dense {
+  const n = M.rows;
+  const result = zerosDense(n, n);
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) result.data[i * n + j] = (M.data[i * n + j] + M.data[j * n + i]) / 2;
+  }
+  return result;
+}
+
+/**
+ * Cholesky factor test of a symmetric R: positive definite when every pivot exceeds m·ε·‖R‖_F
+ * (rounding of the data; a smaller pivot means R is singular or indefinite to working accuracy).
+ * Returns R⁻¹ (from LU, used only for products) or null.
+ */
+export function inverseIfPositiveDefinite(R: Dense): Dense | null {
+  const m = R.rows;
+  if (m === 0) return zerosDense(0, 0);
+  const r = symmetrisedDense(R).data;
+  const threshold = m * EPS * normFrobeniusDense(R);
+  const l = new Float64Array(m * m);
+  for (let j = 0; j < m; j++) {
+    let diagonal = r[j * m + j];
+    for (let k = 0; k < j; k++) diagonal -= l[j * m + k] * l[j * m + k];
+    if (!(diagonal > threshold)) return null;
+    const root = Math.sqrt(diagonal);
+    l[j * m + j] = root;
+    for (let i = j + 1; i < m; i++) {
+      let sum = r[i * m + j];
+      for (let k = 0; k < j; k++) sum -= l[i * m + k] * l[j * m + k];
+      l[i * m + j] = sum / root;
+    }
+  }
+  // R⁻¹ = L⁻ᵀL⁻¹ by forward/back substitution on the identity.
+  const inverse = identityDense(m);
+  const x = inverse.data;
+  for (let col = 0; col < m; col++) {
+    for (let i = 0; i < m; i++) {
+      let sum = x[i * m + col];
+      for (let k = 0; k < i; k++) sum -= l[i * m + k] * x[k * m + col];
+      x[i * m + col] = sum / l[i * m + i];
+    }
+    for (let i = m - 1; i >= 0; i--) {
+      let sum = x[i * m + col];
+      for (let k = i + 1; k < m; k++) sum -= l[k * m + i] * x[k * m + col];
+      x[i * m + col] = sum / l[i * m + i];
+    }
+  }
+  return symmetrisedDense(inverse);
+}
+
+export function combine(a: Dense, alpha: number, b: Dense, beta: number): Dense {
+  const result = zerosDense(a.rows, a.cols);
+  for (let i = 0; i < a.data.length; i++) result.data[i] = alpha * a.data[i] + beta * b.data[i];
+  return result;
+}
+
+export function allFinite(...matrices: Dense[]): boolean {
+  return matrices.every((matrix) => matrix.data.every((value) => Number.isFinite(value)));
+}
+
+/** Folds the cross term: Ā = A − B·R⁻¹·Nᵀ, Q̄ = Q − N·R⁻¹·Nᵀ, G = B·R⁻¹·Bᵀ. */
+export function foldCrossTerm(A: Dense, B: Dense, Q: Dense, N: Dense, Rinv: Dense): { Abar: Dense; Qbar: Dense; G: Dense } {
+  const BRinv = multiplyDense(B, Rinv);
+  const NRinv = multiplyDense(N, Rinv);
+  const Nt = transposeDense(N);
+  const Abar = combine(A, 1, multiplyDense(BRinv, Nt), -1);
+  const Qbar = symmetrisedDense(combine(Q, 1, multiplyDense(NRinv, Nt), -1));
+  const G = symmetrisedDense(multiplyDense(BRinv, transposeDense(B)));
+  return { Abar, Qbar, G };
+}
+
+export function failedSolution(n: number, m: number, failure: RiccatiFailure, closedLoopEigenvalues: Complex[] = []): RiccatiSolution {
+  return {
+    X: Array.from({ length: n }, () => new Array<number>(n).fill(NaN)),
+    gain: Array.from({ length: m }, () => new Array<number>(n).fill(NaN)),
+    residual: NaN,
+    closedLoopEigenvalues,
+    ok: false,
+    failure,
+    newtonSteps: 0,
+    conditionEstimate: Infinity,
+  };
+}
+
+export interface RiccatiInputs {
+  A: Dense;
+  B: Dense;
+  Q: Dense;
+  R: Dense;
+  N: Dense;
+  n: number;
+  m: number;
+}
+
+/** Shapes and finiteness; null when the data cannot form a Riccati equation. */
+export function readRiccatiInputs(A: Rows, B: Rows, Q: Rows, R: Rows, N?: Rows): RiccatiInputs | null {
+  const n = A.length;
+  const m = R.length;
+  const shapeOk =
+    A.every((row) => row.length === n) &&
+    B.length === n &&
+    B.every((row) => row.length === m) &&
+    Q.length === n &&
+    Q.every((row) => row.length === n) &&
+    R.every((row) => row.length === m) &&
+    (N === undefined || (N.length === n && N.every((row) => row.length === m)));
+  if (!shapeOk) return null;
+  const inputs: RiccatiInputs = {
+    A: denseFromRows(A),
+    B: n === 0 ? zerosDense(0, m) : denseFromRows(B),
+    Q: symmetrisedDense(denseFromRows(Q)),
+    R: denseFromRows(R),
+    N: N === undefined || n === 0 ? zerosDense(n, m) : denseFromRows(N),
+    n,
+    m,
+  };
+  return allFinite(inputs.A, inputs.B, inputs.Q, inputs.R, inputs.N) ? inputs : null;
+}
+
+// ------------------------------------------------------------------ continuous-time specifics
+
+/** Āᵀ X + X Ā − X G X + Q̄ */
+function continuousResidualMatrix(Abar: Dense, G: Dense, Qbar: Dense, X: Dense): Dense {
+  const XA = multiplyDense(X, Abar);
+  const XG = multiplyDense(X, G);
+  const XGX = multiplyDense(XG, X);
+  const n = X.rows;
+  const result = zerosDense(n, n);
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      result.data[i * n + j] = XA.data[j * n + i] + XA.data[i * n + j] - XGX.data[i * n + j] + Qbar.data[i * n + j];
+    }
+  }
+  return symmetrisedDense(result);
+}
+
+/**
+ * ‖ĀᵀX + XĀ − XGX + Q̄‖_F / (‖Q̄‖_F + 2‖Ā‖_F‖X‖_F + ‖X‖_F²‖G‖_F), with G = BR⁻¹Bᵀ and the cross
+ * term folded into Ā, Q̄ (algebraically the same residual as the unfolded equation).
+ */
+function continuousNormalisedResidual(Abar: Dense, G: Dense, Qbar: Dense, X: Dense): number {
+  const numerator = normFrobeniusDense(continuousResidualMatrix(Abar, G, Qbar, X));
+  const normX = normFrobeniusDense(X);
+  const denominator = normFrobeniusDense(Qbar) + 2 * normFrobeniusDense(Abar) * normX + normX * normX * normFrobeniusDense(G);
+  return denominator === 0 ? numerator : numerator / denominator;
+}
+
+/** X from an orthonormal basis [U11; U21] (2n×n, the first n columns of Z) of the stable subspace: X = U21·U11⁻¹. */
+function graphSolution(Z: Dense, n: number): { X: Dense; rcond: number } | null {
+  const size = 2 * n;
+  const U11t = zerosDense(n, n);
+  const U21t = zerosDense(n, n);
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      U11t.data[j * n + i] = Z.data[i * size + j];
+      U21t.data[j * n + i] = Z.data[(n + i) * size + j];
+    }
+  }
+  // U11ᵀ·Xᵀ = U21ᵀ
+  const factor = luFactor(U11t);
+  if (factor.hasZeroPivot) return null;
+  let norm1 = 0;
+  for (let j = 0; j < n; j++) {
+    let sum = 0;
+    for (let i = 0; i < n; i++) sum += Math.abs(U11t.data[i * n + j]);
+    norm1 = Math.max(norm1, sum);
+  }
+  const rcond = reciprocalConditionEstimate(factor, norm1);
+  const Xt = luSolveDense(factor, U21t);
+  return { X: transposeDense(Xt), rcond };
+}
+
+function hamiltonian(Abar: Dense, G: Dense, Qbar: Dense, scaling: number): Dense {
+  const n = Abar.rows;
+  const size = 2 * n;
+  const H = zerosDense(size, size);
+  const h = H.data;
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      h[i * size + j] = Abar.data[i * n + j];
+      h[i * size + n + j] = -G.data[i * n + j] * scaling;
+      h[(n + i) * size + j] = -Qbar.data[i * n + j] / scaling;
+      h[(n + i) * size + n + j] = -Abar.data[j * n + i];
+    }
+  }
+  return H;
+}
+
+/**
+ * Stable-subspace solution via the sign function: with W = sign(H), X solves the overdetermined
+ * [W12; W22 + I]·X = −[W11 + I; W21] (Byers 1987), taken here through the normal equations; the
+ * Newton refinement that follows recovers full accuracy.
+ */
+function signFunctionSolution(H: Dense, n: number): Dense | null {
+  const sign = matrixSignDense(H);
+  if (!sign.converged) return null;
+  const size = 2 * n;
+  const w = sign.S.data;
+  const M = zerosDense(size, n);
+  const rhs = zerosDense(size, n);
+  for (let i = 0; i < size; i++) {
+    for (let j = 0; j < n; j++) {
+      M.data[i * n + j] = w[i * size + n + j] + (i >= n && i - n === j ? 1 : 0);
+      rhs.data[i * n + j] = -(w[i * size + j] + (i < n && i === j ? 1 : 0));
+    }
+  }
+  const Mt = transposeDense(M);
+  const factor = luFactor(multiplyDense(Mt, M));
+  if (factor.hasZeroPivot) return null;
+  return symmetrisedDense(luSolveDense(factor, multiplyDense(Mt, rhs)));
+}
+
+/**
+ * Solves AᵀX + XA − (XB + N)R⁻¹(BᵀX + Nᵀ) + Q = 0 for the stabilising X; gain K = R⁻¹(BᵀX + Nᵀ).
+ * Never throws; every failure is reported in `failure`.
+ */
+export interface ContinuousRiccatiOptions {
+  /** 'schur' (default, sign function only as fallback) or 'sign' to use the sign function directly. */
+  method?: 'schur' | 'sign';
+}
+
+export function solveContinuousRiccati(
+  A: Rows,
+  B: Rows,
+  Q: Rows,
+  R: Rows,
+  N?: Rows,
+  options: ContinuousRiccatiOptions = {},
+): RiccatiSolution {
+  const inputs = readRiccatiInputs(A, B, Q, R, N);
+  const n = A.length;
+  const m = R.length;
+  if (inputs === null) return failedSolution(n, m, 'no-convergence');
+  const Rinv = inverseIfPositiveDefinite(inputs.R);
+  if (Rinv === null) return failedSolution(n, m, 'r-not-positive-definite');
+  if (n === 0) {
+    return { X: [], gain: Array.from({ length: m }, () => []), residual: 0, closedLoopEigenvalues: [], ok: true, newtonSteps: 0, conditionEstimate: 0 };
+  }
+  const { Abar, Qbar, G } = foldCrossTerm(inputs.A, inputs.B, inputs.Q, inputs.N, Rinv);
+
+  // Scaling X = σ·Y balances the off-diagonal blocks: ‖σG‖ = ‖Q̄/σ‖ (common practice).
+  const normG = normFrobeniusDense(G);
+  const normQ = normFrobeniusDense(Qbar);
+  const sigma = normG > 0 && normQ > 0 ? Math.sqrt(normQ / normG) : 1;
+  const H = hamiltonian(Abar, G, Qbar, sigma);
+  const normH = normFrobeniusDense(H);
+  // Eigenvalues within this distance of the imaginary axis are treated as on it: Hamiltonian
+  // eigenvalues are perturbed by about ε‖H‖ (simple) and √(ε)‖H‖ (2×2 Jordan blocks, which
+  // non-stabilisable or undetectable modes on the axis produce), times the dimension.
+  const axisTolerance = 2 * n * Math.sqrt(EPS) * normH;
+
+  let X: Dense | null = null;
+  let failure: RiccatiFailure | undefined;
+  const schur =
+    options.method === 'sign'
+      ? { converged: false, T: H, Z: H, selectedCount: 0, reordered: false }
+      : orderedRealSchurDense(H, (lambda) => lambda.re < 0);
+  if (schur.converged) {
+    const values = eigenvaluesOfQuasiTriangular(schur.T);
+    const nearAxis = values.some((lambda) => Math.abs(lambda.re) <= axisTolerance);
+    if (nearAxis || schur.selectedCount !== n) return failedSolution(n, m, 'imaginary-axis-eigenvalues');
+    if (schur.reordered) {
+      const graph = graphSolution(schur.Z, n);
+      if (graph === null || !(graph.rcond > n * EPS)) return failedSolution(n, m, 'not-stabilisable');
+      X = graph.X;
+    }
+  }
+  if (X === null) {
+    // Schur route unavailable (no convergence, or a rejected block swap): sign function.
+    X = signFunctionSolution(H, n);
+    if (X === null) failure = 'no-convergence';
+  }
+  if (X === null) return failedSolution(n, m, failure ?? 'no-convergence');
+  for (let i = 0; i < X.data.length; i++) X.data[i] *= sigma;
+
+  // Symmetry of the subspace solution: X = Xᵀ up to the conditioning of U11.
+  let asymmetry = 0;
+  for (let i = 0; i < n; i++) for (let j = 0; j < i; j++) asymmetry = Math.hypot(asymmetry, X.data[i * n + j] - X.data[j * n + i]);
+  if (!(asymmetry <= Math.sqrt(EPS) * normFrobeniusDense(X)) && allFinite(X)) {
+    return failedSolution(n, m, 'not-symmetric-solution');
+  }
+  X = symmetrisedDense(X);
+  if (!allFinite(X)) return failedSolution(n, m, 'no-convergence');
+
+  // Newton–Kleinman refinement in defect-correction form: (Ā − GX)ᵀΔ + Δ(Ā − GX) = −Res(X).
+  let residual = continuousNormalisedResidual(Abar, G, Qbar, X);
+  let newtonSteps = 0;
+  for (let step = 0; step < MAX_NEWTON_STEPS && residual > n * EPS; step++) {
+    const closedLoop = combine(Abar, 1, multiplyDense(G, X), -1);
+    const correction = solveLyapunovContinuousDense(transposeDense(closedLoop), continuousResidualMatrix(Abar, G, Qbar, X));
+    if (!correction.ok) break;
+    const candidate = symmetrisedDense(combine(X, 1, correction.X, 1));
+    const candidateResidual = continuousNormalisedResidual(Abar, G, Qbar, candidate);
+    if (!(candidateResidual < residual)) break;
+    X = candidate;
+    residual = candidateResidual;
+    newtonSteps++;
+  }
+
+  // K = R⁻¹(BᵀX + Nᵀ); closed loop A − BK.
+  const gain = multiplyDense(Rinv, combine(multiplyDense(transposeDense(inputs.B), X), 1, transposeDense(inputs.N), 1));
+  const closedLoop = combine(inputs.A, 1, multiplyDense(inputs.B, gain), -1);
+  const closedLoopSchur = realSchurDense(closedLoop);
+  const closedLoopEigenvalues = closedLoopSchur.eigenvalues;
+  const conditionEstimate = continuousConditionEstimate(closedLoop, Abar, G, Qbar, X);
+  const result: RiccatiSolution = {
+    X: denseToRows(X),
+    gain: denseToRows(gain),
+    residual,
+    closedLoopEigenvalues,
+    ok: true,
+    newtonSteps,
+    conditionEstimate,
+  };
+  if (!closedLoopSchur.converged) return { ...result, ok: false, failure: 'no-convergence' };
+  if (!closedLoopEigenvalues.every((lambda) => lambda.re < 0)) return { ...result, ok: false, failure: 'not-stabilisable' };
+  return result;
+}
+
+function continuousConditionEstimate(closedLoop: Dense, Abar: Dense, G: Dense, Qbar: Dense, X: Dense): number {
+  const n = X.rows;
+  // Ω(Z) = AcᵀZ + Z·Ac; Ω⁻¹(I) from one more Lyapunov solve.
+  const inverseAtIdentity = solveLyapunovContinuousDense(transposeDense(closedLoop), identityDense(n));
+  if (!inverseAtIdentity.ok) return Infinity;
+  const omegaInverseNorm = normFrobeniusDense(inverseAtIdentity.X);
+  const normX = normFrobeniusDense(X);
+  const data = normFrobeniusDense(Qbar) + 2 * normFrobeniusDense(Abar) * normX + normFrobeniusDense(G) * normX * normX;
+  return (omegaInverseNorm * data) / (normX > 0 ? normX : 1);
+}
