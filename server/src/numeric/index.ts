@@ -11,6 +11,6 @@ export * from './eigenvectors';
 export * from './qr';
 export * from './svd';
 export * from './rank';
-// (core exports continue below as files land)
+export * from './polynomial';
 
 // ---- control-equation solvers (owned separately; added at integration) ----
