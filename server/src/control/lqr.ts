@@ -1,0 +1,177 @@
+// Linear-quadratic regulator: u = −K x minimising ∫ xᵀQx + 2xᵀNu + uᵀRu dt (continuous) or
+// Σ xᵀQx + 2xᵀNu + uᵀRu (discrete), from the stabilising solution X of the algebraic Riccati
+// equation (solveContinuousRiccati / solveDiscreteRiccati in the numeric layer):
+//   continuous  K = R⁻¹(BᵀX + Nᵀ)
+//   discrete    K = (R + BᵀXB)⁻¹(BᵀXA + Nᵀ)
+// Before solving, the data are checked so failures carry a reason an engineer can act on:
+//   R symmetric positive definite (Cholesky), Q − N R⁻¹ Nᵀ positive semidefinite (eigenvalues),
+//   (A, B) stabilisable (staircase + PBH), and no mode of (A − B R⁻¹ Nᵀ) on the stability
+//   boundary unobservable through Q − N R⁻¹ Nᵀ (otherwise the Hamiltonian / symplectic pencil has
+//   eigenvalues on the boundary and no stabilising solution exists).
+// Guaranteed margins: for continuous full-state LQR with diagonal R and N = 0, each input loop
+// has gain margin [½, ∞) and phase margin ≥ 60° (Safonov & Athans 1977, from the return
+// difference inequality). Nowhere else (discrete, cross weights, observers) do they hold; there
+// the engine computes the actual margins (margins.ts).
+import { solveContinuousRiccati, solveDiscreteRiccati } from '../numeric';
+import type { Complex, Rows } from '../numeric/types';
+import { eigenvaluesOf } from './controlLinearAlgebra';
+import { analyzeControllability, analyzeObservability, classifyEigenvalue, eigenvalueTolerance } from './structure';
+import { checkPositiveDefinite, checkPositiveSemidefinite } from './weightChecks';
+import { solveLinear } from '../numeric/lu';
+
+export type LqrFailure =
+  | 'dimension-mismatch'
+  | 'r-not-positive-definite'
+  | 'q-not-positive-semidefinite'
+  | 'not-stabilisable'
+  | 'not-detectable-on-axis'
+  | 'no-stabilising-solution'
+  | 'no-convergence';
+
+export interface LqrResult {
+  ok: boolean;
+  K: Rows | null;
+  X: Rows | null;
+  closedLoopPoles: Complex[];
+  /** Relative Riccati residual reported by the solver. */
+  residual: number;
+  conditionEstimate: number;
+  failure?: LqrFailure;
+  /** The offending mode for 'not-stabilisable' / 'not-detectable-on-axis'. */
+  mode?: Complex;
+  /** Smallest eigenvalue / pivot that failed a definiteness check. */
+  smallest?: number;
+  classicalMarginsApply: boolean;
+}
+
+function transpose(M: Rows): Rows {
+  const rows = M.length;
+  const cols = rows === 0 ? 0 : M[0].length;
+  return Array.from({ length: cols }, (_, j) => Array.from({ length: rows }, (_, i) => M[i][j]));
+}
+
+function multiply(a: Rows, b: Rows): Rows {
+  const inner = b.length;
+  const cols = inner === 0 ? 0 : b[0].length;
+  return a.map((row) => {
+    const out = new Array<number>(cols).fill(0);
+    for (let k = 0; k < inner; k++) {
+      const value = row[k];
+      if (value === 0) continue;
+      const bk = b[k];
+      for (let j = 0; j < cols; j++) out[j] += value * bk[j];
+    }
+    return out;
+  });
+}
+
+function isDiagonal(M: Rows): boolean {
+  return M.every((row, i) => row.every((value, j) => i === j || value === 0));
+}
+
+function isZero(M: Rows | undefined): boolean {
+  return !M || M.every((row) => row.every((value) => value === 0));
+}
+
+export function designLqr(
+  A: Rows,
+  B: Rows,
+  Q: Rows,
+  R: Rows,
+  N: Rows | undefined,
+  domain: 'continuous' | 'discrete',
+): LqrResult {
+  const n = A.length;
+  const m = n === 0 ? 0 : (B[0]?.length ?? 0);
+  const result = (fields: Partial<LqrResult>): LqrResult => ({
+    ok: false,
+    K: null,
+    X: null,
+    closedLoopPoles: [],
+    residual: NaN,
+    conditionEstimate: NaN,
+    classicalMarginsApply: false,
+    ...fields,
+  });
+  const shapeOk =
+    B.length === n &&
+    Q.length === n &&
+    Q.every((row) => row.length === n) &&
+    R.length === m &&
+    R.every((row) => row.length === m) &&
+    (!N || (N.length === n && N.every((row) => row.length === m)));
+  if (!shapeOk || m === 0) return result({ failure: 'dimension-mismatch' });
+
+  const rCheck = checkPositiveDefinite(R);
+  if (!rCheck.ok) return result({ failure: 'r-not-positive-definite', smallest: rCheck.smallest });
+
+  // Q̃ = Q − N R⁻¹ Nᵀ and Ã = A − B R⁻¹ Nᵀ: the cross term removed (the standard change u = v − R⁻¹Nᵀx).
+  let Qtilde = Q;
+  let Atilde = A;
+  if (N && !isZero(N)) {
+    const RinvNt = solveLinear(R, transpose(N)).X; // m × n
+    const NRinvNt = multiply(N, RinvNt);
+    Qtilde = Q.map((row, i) => row.map((value, j) => value - NRinvNt[i][j]));
+    const BRinvNt = multiply(B, RinvNt);
+    Atilde = A.map((row, i) => row.map((value, j) => value - BRinvNt[i][j]));
+  }
+  const qCheck = checkPositiveSemidefinite(Qtilde);
+  if (!qCheck.ok) return result({ failure: 'q-not-positive-semidefinite', smallest: qCheck.smallest });
+
+  const controllability = analyzeControllability(A, B, domain, { computeMargin: false });
+  const unstabilisable = controllability.uncontrollableModes.find((mode) => !mode.stable);
+  if (unstabilisable) return result({ failure: 'not-stabilisable', mode: unstabilisable.value });
+
+  const observability = analyzeObservability(Atilde, Qtilde, domain, { computeMargin: false });
+  const axisTolerance = eigenvalueTolerance(Atilde, domain);
+  const onAxis = observability.unobservableModes.find(
+    (mode) => classifyEigenvalue(mode.value, domain, axisTolerance) === 'marginal',
+  );
+  if (onAxis) return result({ failure: 'not-detectable-on-axis', mode: onAxis.value });
+
+  const solution =
+    domain === 'continuous'
+      ? solveContinuousRiccati(A, B, Q, R, N)
+      : solveDiscreteRiccati(A, B, Q, R, N);
+  const classicalMarginsApply = domain === 'continuous' && isDiagonal(R) && isZero(N);
+  if (!solution.ok || !solution.X) {
+    const failure: LqrFailure = solution.failure === 'no-convergence' ? 'no-convergence' : 'no-stabilising-solution';
+    return result({ failure, residual: solution.residual, conditionEstimate: solution.conditionEstimate });
+  }
+  const X = solution.X;
+  let K: Rows;
+  if (solution.gain && solution.gain.length === m) {
+    K = solution.gain;
+  } else if (domain === 'continuous') {
+    const rhs = multiply(transpose(B), X).map((row, i) => row.map((value, j) => value + (N ? N[j][i] : 0)));
+    K = solveLinear(R, rhs).X;
+  } else {
+    const BtX = multiply(transpose(B), X);
+    const H = multiply(BtX, B).map((row, i) => row.map((value, j) => value + R[i][j]));
+    const rhs = multiply(BtX, A).map((row, i) => row.map((value, j) => value + (N ? N[j][i] : 0)));
+    K = solveLinear(H, rhs).X;
+  }
+  const BK = multiply(B, K);
+  const closedLoopPoles = eigenvaluesOf(A.map((row, i) => row.map((value, j) => value - BK[i][j])));
+  const tolerance = eigenvalueTolerance(A, domain);
+  const stable = closedLoopPoles.every((pole) => classifyEigenvalue(pole, domain, tolerance) === 'stable');
+  if (!stable) {
+    return result({
+      failure: 'no-stabilising-solution',
+      K,
+      X,
+      closedLoopPoles,
+      residual: solution.residual,
+      conditionEstimate: solution.conditionEstimate,
+    });
+  }
+  return {
+    ok: true,
+    K,
+    X,
+    closedLoopPoles,
+    residual: solution.residual,
+    conditionEstimate: solution.conditionEstimate,
+    classicalMarginsApply,
+  };
+}

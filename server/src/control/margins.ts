@@ -1,0 +1,316 @@
+// Stability margins of the loop as implemented, broken at the plant input.
+//
+// Loop transfer (negative-feedback convention, closed by v = −L v):
+//   state feedback      L(λ) = K (λI − A)⁻¹ B
+//   output feedback     L(λ) = −Kc(λ) P(λ), P the plant y/u, Kc the controller u/y
+//                       (observer-based controller from combinedClosedLoop.ts)
+// MIMO: one input at a time, the other loops closed (Skogestad & Postlethwaite's "loop-at-a-
+// time" margins): L_i = l_ii − l_io (I + L_oo)⁻¹ l_oi at each frequency.
+// On the SISO L_i(jω) (or L_i(e^{jωT}) up to π/T):
+//   gain crossovers |L_i| = 1 → phase margin PM = ∠L_i + 180° (into (−180°, 180°]), delay margin
+//     PM[rad]/ω_c (smallest over crossovers);
+//   negative-real-axis crossings L_i = −a (phase crossovers, incl. ω = 0 and ω = ∞ / π/T) → the
+//     critical gains 1/a; the upper gain margin is the smallest 1/a above 1, the lower gain
+//     margin the largest 1/a below 1 (the gain interval around 1 over which the Nyquist count,
+//     hence stability, is unchanged);
+//   peak sensitivity Ms = max |1/(1 + L_i)|.
+// Grid: logarithmic, 60 points per decade over two decades beyond the smallest and largest pole
+// magnitudes of the loop and closed loop, extra points around lightly damped poles; each crossing
+// is refined by bisection on log ω (at most 60 steps), the sensitivity peak by golden-section
+// search (at most 60 steps).
+import type { Complex, ComplexRows, Rows } from '../numeric/types';
+import { solveComplexLinear, solveLinear } from '../numeric/lu';
+import { eigenvaluesOf } from './controlLinearAlgebra';
+import type { StateSpace } from './combinedClosedLoop';
+import { evaluateTransfer, frequencyPoint, logarithmicGrid } from './frequencyResponse';
+
+export interface InputLoopMargins {
+  input: number;
+  /** Factor (dB) by which this loop's gain may grow before instability; +∞ when unbounded. */
+  upperGainMarginDb: number;
+  upperGainCrossover: number | null;
+  /** Factor (dB, ≤ 0) to which the gain may shrink before instability; −∞ when unbounded. */
+  lowerGainMarginDb: number;
+  lowerGainCrossover: number | null;
+  /** Smallest phase margin over the gain crossovers (deg); null when |L| never crosses 1. */
+  phaseMarginDeg: number | null;
+  gainCrossover: number | null;
+  /** Smallest extra loop delay (s) that destabilises; null when there is no gain crossover. */
+  delayMargin: number | null;
+  peakSensitivity: number;
+  peakSensitivityFrequency: number;
+}
+
+export interface LoopMarginsResult {
+  method: 'loop-at-a-time, broken at the plant input, other loops closed';
+  domain: 'continuous' | 'discrete';
+  closedLoopStable: boolean;
+  perInput: InputLoopMargins[];
+  /** Grid bounds used (rad/s). */
+  lowestFrequency: number;
+  highestFrequency: number;
+}
+
+function multiply(a: Rows, b: Rows): Rows {
+  const inner = b.length;
+  const cols = inner === 0 ? 0 : b[0].length;
+  return a.map((row) => {
+    const out = new Array<number>(cols).fill(0);
+    for (let k = 0; k < inner; k++) for (let j = 0; j < cols; j++) out[j] += row[k] * b[k][j];
+    return out;
+  });
+}
+
+/** L(λ) = K (λI − A)⁻¹ B as a state-space model. */
+export function stateFeedbackLoop(A: Rows, B: Rows, K: Rows): StateSpace {
+  const m = K.length;
+  return { A, B, C: K, D: Array.from({ length: m }, () => new Array<number>(m).fill(0)) };
+}
+
+/** L = −Kc·P: plant (A, B, C, D) in series with the controller (Ac, Bc, Cc, Dc) from y to u. */
+export function outputFeedbackLoop(plant: StateSpace, controller: StateSpace): StateSpace {
+  const n = plant.A.length;
+  const nc = controller.A.length;
+  const BcC = multiply(controller.B, plant.C);
+  const BcD = multiply(controller.B, plant.D);
+  const DcC = multiply(controller.D, plant.C);
+  const DcD = multiply(controller.D, plant.D);
+  const A: Rows = [
+    ...plant.A.map((row) => [...row, ...new Array<number>(nc).fill(0)]),
+    ...controller.A.map((row, i) => [...BcC[i], ...row]),
+  ];
+  const B: Rows = [...plant.B.map((row) => row.slice()), ...BcD];
+  const C: Rows = DcC.map((row, i) => [...row.map((v) => -v), ...controller.C[i].map((v) => -v)]);
+  const D: Rows = DcD.map((row) => row.map((v) => -v));
+  void n;
+  return { A, B, C, D };
+}
+
+/** Closed-loop state matrix of v = −L v: A − B (I + D)⁻¹ C. */
+function closedLoopMatrix(loop: StateSpace): Rows {
+  const m = loop.D.length;
+  const IplusD = loop.D.map((row, i) => row.map((v, j) => v + (i === j ? 1 : 0)));
+  const gain = m === 0 ? [] : solveLinear(IplusD, loop.C).X;
+  const BG = m === 0 ? loop.A.map((row) => row.map(() => 0)) : multiply(loop.B, gain);
+  return loop.A.map((row, i) => row.map((v, j) => v - BG[i][j]));
+}
+
+/** The SISO loop seen at input `channel` with the other loops closed: l_ii − l_io (I + L_oo)⁻¹ l_oi. */
+function loopAtInput(value: ComplexRows, channel: number): Complex {
+  const m = value.re.length;
+  if (m === 1) return { re: value.re[0][0], im: value.im[0][0] };
+  const others = Array.from({ length: m }, (_, k) => k).filter((k) => k !== channel);
+  const M: ComplexRows = {
+    re: others.map((i) => others.map((j) => value.re[i][j] + (i === j ? 1 : 0))),
+    im: others.map((i) => others.map((j) => value.im[i][j])),
+  };
+  const rhs: ComplexRows = { re: others.map((i) => [value.re[i][channel]]), im: others.map((i) => [value.im[i][channel]]) };
+  const solution = solveComplexLinear(M, rhs);
+  let re = value.re[channel][channel];
+  let im = value.im[channel][channel];
+  others.forEach((j, index) => {
+    const ar = value.re[channel][j];
+    const ai = value.im[channel][j];
+    const xr = solution.X.re[index][0];
+    const xi = solution.X.im[index][0];
+    re -= ar * xr - ai * xi;
+    im -= ar * xi + ai * xr;
+  });
+  return { re, im };
+}
+
+function stableIn(poles: Complex[], domain: 'continuous' | 'discrete'): boolean {
+  return poles.every((pole) => (domain === 'continuous' ? pole.re < 0 : Math.hypot(pole.re, pole.im) < 1));
+}
+
+function frequencyGrid(loop: StateSpace, closedPoles: Complex[], domain: 'continuous' | 'discrete', T: number): number[] {
+  const openPoles = eigenvaluesOf(loop.A);
+  const corners: { frequency: number; damping: number }[] = [];
+  for (const pole of [...openPoles, ...closedPoles]) {
+    const s = domain === 'continuous' ? pole : { re: Math.log(Math.hypot(pole.re, pole.im)) / T, im: Math.atan2(pole.im, pole.re) / T };
+    const frequency = Math.hypot(s.re, s.im);
+    if (Number.isFinite(frequency) && frequency > 0) corners.push({ frequency, damping: Math.abs(s.re) / frequency });
+  }
+  let scale = 0;
+  for (const row of loop.A) for (const v of row) scale = Math.max(scale, Math.abs(v));
+  const fallback = scale > 0 ? scale : 1;
+  const lowCorner = corners.length ? Math.min(...corners.map((c) => c.frequency)) : fallback;
+  const highCorner = corners.length ? Math.max(...corners.map((c) => c.frequency)) : fallback;
+  const low = lowCorner / 100;
+  const nyquist = Math.PI / T;
+  const high = domain === 'continuous' ? highCorner * 100 : nyquist;
+  const grid = logarithmicGrid(Math.min(low, high / 10), high, 60);
+  for (const corner of corners) {
+    if (corner.damping < 0.3) {
+      const width = Math.max(3 * corner.damping, 1e-3);
+      for (let k = -20; k <= 20; k++) {
+        const omega = corner.frequency * (1 + (width * k) / 20);
+        if (omega > 0 && omega <= high) grid.push(omega);
+      }
+    }
+  }
+  grid.sort((a, b) => a - b);
+  return grid.filter((omega, index) => index === 0 || omega > grid[index - 1]);
+}
+
+const REFINE_STEPS = 60;
+
+function bisectLog(f: (omega: number) => number, low: number, high: number): number {
+  let fLow = f(low);
+  for (let step = 0; step < REFINE_STEPS && high - low > 4 * Number.EPSILON * high; step++) {
+    const middle = Math.sqrt(low * high);
+    const fMiddle = f(middle);
+    if (Math.sign(fMiddle) === Math.sign(fLow)) {
+      low = middle;
+      fLow = fMiddle;
+    } else {
+      high = middle;
+    }
+  }
+  return Math.sqrt(low * high);
+}
+
+function goldenMax(f: (omega: number) => number, low: number, high: number): { omega: number; value: number } {
+  const ratio = (Math.sqrt(5) - 1) / 2;
+  let a = Math.log(low);
+  let b = Math.log(high);
+  let c = b - ratio * (b - a);
+  let d = a + ratio * (b - a);
+  let fc = f(Math.exp(c));
+  let fd = f(Math.exp(d));
+  for (let step = 0; step < REFINE_STEPS && b - a > 4 * Number.EPSILON * Math.max(1, Math.abs(b)); step++) {
+    if (fc > fd) {
+      b = d;
+      d = c;
+      fd = fc;
+      c = b - ratio * (b - a);
+      fc = f(Math.exp(c));
+    } else {
+      a = c;
+      c = d;
+      fc = fd;
+      d = a + ratio * (b - a);
+      fd = f(Math.exp(d));
+    }
+  }
+  return fc > fd ? { omega: Math.exp(c), value: fc } : { omega: Math.exp(d), value: fd };
+}
+
+export function loopMargins(loop: StateSpace, domain: 'continuous' | 'discrete', T = 1): LoopMarginsResult {
+  const m = loop.D.length;
+  const closedPoles = eigenvaluesOf(closedLoopMatrix(loop));
+  const closedLoopStable = stableIn(closedPoles, domain);
+  const grid = frequencyGrid(loop, closedPoles, domain, T);
+  const rootEps = Math.sqrt(Number.EPSILON);
+
+  const matrixAt = (omega: number): ComplexRows =>
+    evaluateTransfer(loop.A, loop.B, loop.C, loop.D, frequencyPoint(omega, domain, T)).value;
+  const perInput: InputLoopMargins[] = [];
+  for (let channel = 0; channel < m; channel++) {
+    const at = (omega: number): Complex => loopAtInput(matrixAt(omega), channel);
+    const values = grid.map(at);
+
+    // Gain crossovers.
+    const logMagnitude = (omega: number): number => Math.log(Math.hypot(at(omega).re, at(omega).im));
+    let phaseMarginDeg: number | null = null;
+    let gainCrossover: number | null = null;
+    let delayMargin: number | null = null;
+    for (let k = 0; k + 1 < grid.length; k++) {
+      const a = Math.log(Math.hypot(values[k].re, values[k].im));
+      const b = Math.log(Math.hypot(values[k + 1].re, values[k + 1].im));
+      if (!(Number.isFinite(a) && Number.isFinite(b)) || Math.sign(a) === Math.sign(b) || a === 0) continue;
+      const omega = bisectLog(logMagnitude, grid[k], grid[k + 1]);
+      const value = at(omega);
+      const phase = (Math.atan2(value.im, value.re) * 180) / Math.PI;
+      let margin = phase + 180;
+      margin -= 360 * Math.round(margin / 360);
+      if (margin === -180) margin = 180;
+      const delay = margin > 0 ? ((margin * Math.PI) / 180) / omega : 0;
+      if (phaseMarginDeg === null || margin < phaseMarginDeg) {
+        phaseMarginDeg = margin;
+        gainCrossover = omega;
+      }
+      delayMargin = delayMargin === null ? delay : Math.min(delayMargin, delay);
+    }
+
+    // Negative-real-axis crossings: critical gains 1/a.
+    const critical: { gain: number; omega: number }[] = [];
+    const consider = (value: Complex, omega: number): void => {
+      const magnitude = Math.hypot(value.re, value.im);
+      if (value.re < 0 && Math.abs(value.im) <= rootEps * magnitude && magnitude > 0 && Number.isFinite(magnitude)) {
+        critical.push({ gain: 1 / magnitude, omega });
+      }
+    };
+    const imaginary = (omega: number): number => at(omega).im;
+    for (let k = 0; k + 1 < grid.length; k++) {
+      const a = values[k].im;
+      const b = values[k + 1].im;
+      if (a === 0 || Math.sign(a) === Math.sign(b) || !Number.isFinite(a) || !Number.isFinite(b)) continue;
+      const omega = bisectLog(imaginary, grid[k], grid[k + 1]);
+      consider(at(omega), omega);
+    }
+    for (let k = 0; k < grid.length; k++) if (values[k].im === 0) consider(values[k], grid[k]);
+    // Endpoints ω = 0 and ω = ∞ (continuous) or π/T (discrete): L is real there.
+    const zero = evaluateTransfer(loop.A, loop.B, loop.C, loop.D, domain === 'continuous' ? { re: 0, im: 0 } : { re: 1, im: 0 });
+    if (!zero.singular) consider(loopAtInput(zero.value, channel), 0);
+    if (domain === 'continuous') {
+      consider(loopAtInput({ re: loop.D, im: loop.D.map((row) => row.map(() => 0)) }, channel), Infinity);
+    } else {
+      const nyquist = evaluateTransfer(loop.A, loop.B, loop.C, loop.D, { re: -1, im: 0 });
+      if (!nyquist.singular) consider(loopAtInput(nyquist.value, channel), Math.PI / T);
+    }
+    let upper = Infinity;
+    let upperOmega: number | null = null;
+    let lower = 0;
+    let lowerOmega: number | null = null;
+    for (const { gain, omega } of critical) {
+      if (gain > 1 && gain < upper) {
+        upper = gain;
+        upperOmega = omega;
+      }
+      if (gain < 1 && gain > lower) {
+        lower = gain;
+        lowerOmega = omega;
+      }
+    }
+
+    // Peak sensitivity.
+    const sensitivity = (omega: number): number => {
+      const value = at(omega);
+      return 1 / Math.hypot(1 + value.re, value.im);
+    };
+    let peakIndex = 0;
+    let peak = -Infinity;
+    values.forEach((value, index) => {
+      const s = 1 / Math.hypot(1 + value.re, value.im);
+      if (s > peak) {
+        peak = s;
+        peakIndex = index;
+      }
+    });
+    const refined = goldenMax(sensitivity, grid[Math.max(0, peakIndex - 1)], grid[Math.min(grid.length - 1, peakIndex + 1)]);
+    const peakSensitivity = Math.max(peak, refined.value);
+    const peakSensitivityFrequency = refined.value > peak ? refined.omega : grid[peakIndex];
+
+    perInput.push({
+      input: channel,
+      upperGainMarginDb: 20 * Math.log10(upper),
+      upperGainCrossover: upperOmega,
+      lowerGainMarginDb: 20 * Math.log10(lower),
+      lowerGainCrossover: lowerOmega,
+      phaseMarginDeg,
+      gainCrossover,
+      delayMargin,
+      peakSensitivity,
+      peakSensitivityFrequency,
+    });
+  }
+  return {
+    method: 'loop-at-a-time, broken at the plant input, other loops closed',
+    domain,
+    closedLoopStable,
+    perInput,
+    lowestFrequency: grid[0],
+    highestFrequency: grid[grid.length - 1],
+  };
+}
