@@ -83,6 +83,7 @@ export interface CheckedPlant {
   inputs: Signal[];
   outputs: Signal[];
   disturbances: Signal[];
+  /** Real scalar parameters that evaluated (matrix-valued and complex parameters are not listed). */
   parameters: ParameterValue[];
   /** The linear model actually analysed (deviation variables when `operatingPoint` is set). */
   A: Rows;
@@ -131,7 +132,18 @@ export interface CheckedController {
   integral?: { outputs: number[]; ranges: Range[]; poles?: PoleSpec; range: Range };
   observer?:
     | { kind: 'poles'; poles: PoleSpec; form: 'predictor' | 'current'; range: Range }
-    | { kind: 'noise'; W: Rows; V: Rows; form: 'predictor' | 'current'; range: Range };
+    | {
+        kind: 'noise';
+        W: Rows;
+        V: Rows;
+        form: 'predictor' | 'current';
+        range: Range;
+        /**
+         * Where the process noise W enters: through E (W is d×d) when the plant declares
+         * disturbances, otherwise on every state directly (W is n×n).
+         */
+        enters?: 'states' | 'disturbances';
+      };
   sample?: { period: number; range: Range };
   delay?: { samples: number; range: Range };
   limits: { input: number; low: number; high: number; range: Range }[];

@@ -1,0 +1,154 @@
+// Evaluates a plant or controller matrix expression to real rows, keeping where every row and
+// entry came from. A matrix literal is evaluated entry by entry (an error in one entry does
+// not hide the others); any other expression (diag(…), identity(n), a matrix parameter,
+// 2*identity(2)) is evaluated whole and all its entries point at it.
+import type { Expr, Range } from '../../../grammar/src/ast';
+import * as Cx from './complex';
+import { notReal, shapeMismatch } from './diagnostics/index';
+import { asScalar, evaluateValue, shapeText, type ValueScope } from './evaluate';
+import { printExpr } from './printExpr';
+import type { Complex, Diagnostic, MatrixSource } from './types';
+
+export interface SourcedMatrix {
+  /** Entries; null where the entry had an error (already reported). */
+  rows: (number | null)[][];
+  source: MatrixSource;
+  /** True for a `[…]` literal: row and entry ranges are exact. */
+  literal: boolean;
+}
+
+export function evaluateSourcedMatrix(expr: Expr, scope: ValueScope, out: Diagnostic[]): SourcedMatrix | null {
+  if (expr.kind === 'matrix') {
+    const rows = expr.rows.filter((row) => row.entries.length > 0);
+    const values = rows.map((row) => row.entries.map((entry) => realEntry(entry, scope, out)));
+    return {
+      rows: values,
+      literal: true,
+      source: {
+        range: expr.range,
+        rowRanges: rows.map((row) => row.range),
+        entryRanges: rows.map((row) => row.entries.map((entry) => entry.range)),
+      },
+    };
+  }
+  if (expr.kind === 'error') return null;
+  const value = evaluateValue(expr, scope, out);
+  if (value === null) return null;
+  const entries = value.kind === 'scalar' ? [[value.value]] : value.entries;
+  let complexEntry: Complex | undefined;
+  const rows = entries.map((row) =>
+    row.map((z) => {
+      if (!Cx.isNearlyReal(z)) {
+        complexEntry ??= z;
+        return null;
+      }
+      return z.re;
+    }),
+  );
+  if (complexEntry) {
+    out.push(notReal.create(expr.range, [printExpr(expr), Cx.formatComplex(complexEntry), scope.place]));
+  }
+  return {
+    rows,
+    literal: false,
+    source: {
+      range: expr.range,
+      rowRanges: rows.map(() => expr.range),
+      entryRanges: rows.map((row) => row.map(() => expr.range)),
+    },
+  };
+}
+
+/** One real number from an entry expression, or null (reported). */
+export function realEntry(entry: Expr, scope: ValueScope, out: Diagnostic[]): number | null {
+  const value = evaluateValue(entry, scope, out);
+  if (value === null) return null;
+  const z = asScalar(value);
+  if (z === null) {
+    out.push(shapeMismatch.create(entry.range, [`${shapeText(value)} where ${scope.place} must be a number (block matrices are not supported)`]));
+    return null;
+  }
+  if (!Cx.isNearlyReal(z)) {
+    out.push(notReal.create(entry.range, [printExpr(entry), Cx.formatComplex(z), scope.place]));
+    return null;
+  }
+  return z.re;
+}
+
+/** The range from the start of one range to the end of another. */
+export function spanRange(from: Range, to: Range): Range {
+  return { start: from.start, end: to.end };
+}
+
+export function plural(count: number, singular: string, pluralForm = singular + 's'): string {
+  return `${count} ${count === 1 ? singular : pluralForm}`;
+}
+
+export interface ShapeExpectation {
+  name: string;
+  rows: number;
+  cols: number;
+  /** "the plant declares 2 states (theta, omega)" */
+  rowReason: string;
+  colReason: string;
+  /** Which code to use for a column mismatch: a declared width, or only the other rows. */
+  makeDiagnostic: (range: Range, message: string) => Diagnostic;
+}
+
+/**
+ * Checks a sourced matrix against its expected shape. Extra rows or entries are reported at
+ * exactly the extra text; a short row at that row; a wrong-sized computed matrix at its
+ * expression. Returns true when the shape is right.
+ */
+export function checkShape(matrix: SourcedMatrix, expect: ShapeExpectation, out: Diagnostic[]): boolean {
+  const { rows, source } = matrix;
+  const { name } = expect;
+  if (!matrix.literal) {
+    const found = rows.length;
+    const width = rows[0]?.length ?? 0;
+    if (found === expect.rows && width === expect.cols) return true;
+    const reasons = [found !== expect.rows ? expect.rowReason : '', width !== expect.cols ? expect.colReason : '']
+      .filter(Boolean)
+      .join(' and ');
+    out.push(expect.makeDiagnostic(source.range, `${name} is ${found}×${width} but must be ${expect.rows}×${expect.cols}: ${reasons}`));
+    return false;
+  }
+  let ok = true;
+  if (rows.length > expect.rows) {
+    ok = false;
+    out.push(
+      expect.makeDiagnostic(
+        spanRange(source.rowRanges[expect.rows]!, source.rowRanges[rows.length - 1]!),
+        `${name} has ${plural(rows.length, 'row')} but ${expect.rowReason}`,
+      ),
+    );
+  } else if (rows.length < expect.rows) {
+    ok = false;
+    const last = source.rowRanges[rows.length - 1];
+    out.push(
+      expect.makeDiagnostic(last ?? source.range, `${name} has ${plural(rows.length, 'row')} but ${expect.rowReason}`),
+    );
+  }
+  const checkedRows = Math.min(rows.length, expect.rows);
+  for (let i = 0; i < checkedRows; i++) {
+    const count = rows[i]!.length;
+    if (count === expect.cols) continue;
+    ok = false;
+    const where = rows.length === 1 ? name : `row ${i + 1} of ${name}`;
+    const range =
+      count > expect.cols
+        ? spanRange(source.entryRanges[i]![expect.cols]!, source.entryRanges[i]![count - 1]!)
+        : source.rowRanges[i]!;
+    out.push(expect.makeDiagnostic(range, `${where} has ${plural(count, 'entry', 'entries')} but ${expect.colReason}`));
+  }
+  return ok;
+}
+
+/** Real rows with nulls replaced by zeros (only used when the plant is already unusable). */
+export function filled(rows: (number | null)[][]): number[][] {
+  return rows.map((row) => row.map((x) => x ?? 0));
+}
+
+export function zeros(rows: number, cols: number): number[][] {
+  return Array.from({ length: rows }, () => new Array<number>(cols).fill(0));
+}
