@@ -59,7 +59,7 @@ class ResponsePanel {
       { viewColumn: vscode.ViewColumn.Beside, preserveFocus: true },
       { enableScripts: true, localResourceRoots: [dist], retainContextWhenHidden: false },
     );
-    this.webview.iconPath = vscode.Uri.joinPath(extensionUri, 'media', 'icon.png');
+    this.webview.iconPath = vscode.Uri.joinPath(extensionUri, 'client', 'media', 'icon.png');
     this.webview.webview.html = panelHtml(this.webview.webview, dist, ref.controller);
     this.webview.webview.onDidReceiveMessage((reply: PanelReply) => {
       if (reply.type === 'ready') {
