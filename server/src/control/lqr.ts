@@ -12,7 +12,8 @@
 // has gain margin [½, ∞) and phase margin ≥ 60° (Safonov & Athans 1977, from the return
 // difference inequality). Nowhere else (discrete, cross weights, observers) do they hold; there
 // the engine computes the actual margins (margins.ts).
-import { solveContinuousRiccati, solveDiscreteRiccati } from '../numeric';
+import { solveContinuousRiccati } from '../numeric/riccatiContinuous';
+import { solveDiscreteRiccati } from '../numeric/riccatiDiscrete';
 import type { Complex, Rows } from '../numeric/types';
 import { eigenvaluesOf } from './controlLinearAlgebra';
 import { analyzeControllability, analyzeObservability, classifyEigenvalue, eigenvalueTolerance } from './structure';
