@@ -92,8 +92,11 @@ export function checkController(
     const other = context!.signals.byName.get(id.name);
     const suggestion = suggestName(id.name, list.map((s) => s.name));
     out.push(
-      unknownName.create(id.range, [id.name, `${role} of plant ${'`'}${plant.name}${'`'}`, suggestion], {
-        related: other ? [{ message: `${id.name} is ${roleArticle[other.role]}`, range: other.range }] : undefined,
+      unknownName.create(id.range, [id.name, role, suggestion], {
+        related: [
+          ...(other ? [{ message: `${id.name} is ${roleArticle[other.role]}`, range: other.range }] : []),
+          { message: `the ${role}s of plant ${plant.name} are declared here`, range: (list[0]?.range ?? plant.nameRange) },
+        ],
         data: suggestion ? { fix: 'rename', replacement: suggestion } : undefined,
       }),
     );

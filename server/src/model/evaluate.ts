@@ -202,7 +202,7 @@ export class ValueEvaluator {
         if (a && b) return scalar(C.mul(a, b));
         return this.report(
           shapeMismatch.create(whole.range, [
-            `cannot multiply ${shapeText(left)} by ${shapeText(right)}: ${left.cols} columns against ${right.rows} rows`,
+            `cannot multiply ${shapeText(left)} by ${shapeText(right)}: ${left.cols} ${left.cols === 1 ? 'column' : 'columns'} against ${right.rows} ${right.rows === 1 ? 'row' : 'rows'}`,
           ]),
         );
       }

@@ -107,7 +107,7 @@ export function checkShape(matrix: SourcedMatrix, expect: ShapeExpectation, out:
     const found = rows.length;
     const width = rows[0]?.length ?? 0;
     if (found === expect.rows && width === expect.cols) return true;
-    const reasons = [found !== expect.rows ? expect.rowReason : '', width !== expect.cols ? expect.colReason : '']
+    const reasons = [...new Set([found !== expect.rows ? expect.rowReason : '', width !== expect.cols ? expect.colReason : ''])]
       .filter(Boolean)
       .join(' and ');
     out.push(expect.makeDiagnostic(source.range, `${name} is ${found}×${width} but must be ${expect.rows}×${expect.cols}: ${reasons}`));
