@@ -321,8 +321,8 @@ export function generalizedEigenvalues(A: Rows, B: Rows): GeneralizedEigenvalues
 }
 
 /**
- * The finite eigenvalues α/β of A − λB. A pair counts as infinite when |β|·‖A‖_F ≤ tol·|α|·‖B‖_F,
- * i.e. when |λ| exceeds ‖A‖/‖B‖ by the factor 1/tol; pairs with α ≈ β ≈ 0 (a singular pencil)
+ * The finite eigenvalues α/β of A − λB. A pair counts as infinite when |α|·tol·‖B‖_F > |β|·max(‖A‖_F, ‖B‖_F),
+ * i.e. when |λ| exceeds max(‖A‖, ‖B‖)/‖B‖ by the factor 1/tol; pairs with α ≈ β ≈ 0 (a singular pencil)
  * are dropped as indeterminate. The default tol = n·√ε reflects that infinite eigenvalues of
  * higher index are perturbed to size ε^(1/k) (Moler & Stewart 1973, section 6; common practice).
  */
@@ -340,7 +340,7 @@ export function finiteGeneralizedEigenvalues(A: Rows, B: Rows, tol?: number): Co
     if (!Number.isFinite(magnitude) || !Number.isFinite(beta[i])) continue;
     const indeterminate = magnitude <= n * Number.EPSILON * normA && beta[i] <= n * Number.EPSILON * normB;
     if (indeterminate) continue;
-    if (beta[i] * normA <= threshold * magnitude * normB || beta[i] === 0) continue;
+    if (beta[i] === 0 || magnitude * threshold * normB > beta[i] * Math.max(normA, normB)) continue;
     finite.push({ re: alpha[i].re / beta[i], im: alpha[i].im / beta[i] });
   }
   return finite;
