@@ -63,6 +63,8 @@ export interface StepResponseProblem {
   };
   /** Grid points (settings.simulationPoints). */
   points: number;
+  /** Override of the simulated duration (s); by default chosen from the closed-loop poles. */
+  duration?: number;
   maxReturnedPoints?: number;
   includeStates?: boolean;
 }
@@ -262,7 +264,12 @@ export function simulateStepResponses(problem: StepResponseProblem): StepRespons
   const closedLoopStable = closedLoopPoles.every((pole) =>
     domain === 'continuous' ? pole.re < 0 : Math.hypot(pole.re, pole.im) < 1,
   );
-  const grid = chooseGrid(closedLoopPoles, domain, T, problem.points);
+  const grid =
+    problem.duration !== undefined && problem.duration > 0
+      ? domain === 'continuous'
+        ? { duration: problem.duration, step: problem.duration / (Math.max(problem.points, 10) - 1), count: Math.max(problem.points, 10), truncated: false }
+        : { duration: Math.ceil(problem.duration / T) * T, step: T, count: Math.ceil(problem.duration / T) + 1, truncated: false }
+      : chooseGrid(closedLoopPoles, domain, T, problem.points);
   const h = grid.step;
   const time = Array.from({ length: grid.count }, (_, k) => k * h);
   const size = n + loop.qi;
