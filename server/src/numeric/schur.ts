@@ -4,7 +4,7 @@
 // LAPACK dlahqr, and the standardisation of 2×2 blocks of LAPACK dlanv2. The iteration count is
 // bounded: when the budget of sweeps is exhausted the result says `converged: false`.
 
-import { type Dense, denseFromRows, denseToRows } from './dense';
+import { type Dense, denseFromRows, denseToRows, transposeDense } from './dense';
 import { hessenbergDense } from './hessenberg';
 import { generateHouseholder } from './householder';
 import type { Complex, Rows } from './types';
@@ -196,12 +196,13 @@ export interface HessenbergQrOutcome {
 /**
  * Francis double-shift QR on the upper Hessenberg h (n×n, row-major, modified in place).
  * With computeT the full quasi-triangular T is formed; otherwise only the eigenvalues are valid.
- * When z is given, it is post-multiplied by the accumulated orthogonal transformations.
+ * When zt is given it holds Zᵀ (row-major, so Z's columns are contiguous) and Z is
+ * post-multiplied by the accumulated orthogonal transformations.
  */
 export function hessenbergQr(
   h: Float64Array,
   n: number,
-  z: Float64Array | null,
+  zt: Float64Array | null,
   computeT: boolean,
   maxSweeps = 30 * Math.max(10, n),
 ): HessenbergQrOutcome {
@@ -371,13 +372,13 @@ export function hessenbergQr(
             h[o + 1] -= sum * t2;
             h[o + 2] -= sum * t3;
           }
-          if (z) {
+          if (zt) {
+            // Rows k..k+2 of Zᵀ, i.e. columns k..k+2 of Z, contiguous in memory.
             for (let j = 0; j < n; j++) {
-              const o = j * n + k;
-              const sum = z[o] + w2 * z[o + 1] + w3 * z[o + 2];
-              z[o] -= sum * t1;
-              z[o + 1] -= sum * t2;
-              z[o + 2] -= sum * t3;
+              const sum = zt[r0 + j] + w2 * zt[r1 + j] + w3 * zt[r2 + j];
+              zt[r0 + j] -= sum * t1;
+              zt[r1 + j] -= sum * t2;
+              zt[r2 + j] -= sum * t3;
             }
           }
         } else if (nr === 2) {
@@ -394,12 +395,11 @@ export function hessenbergQr(
             h[o] -= sum * t1;
             h[o + 1] -= sum * t2;
           }
-          if (z) {
+          if (zt) {
             for (let j = 0; j < n; j++) {
-              const o = j * n + k;
-              const sum = z[o] + w2 * z[o + 1];
-              z[o] -= sum * t1;
-              z[o + 1] -= sum * t2;
+              const sum = zt[r0 + j] + w2 * zt[r1 + j];
+              zt[r0 + j] -= sum * t1;
+              zt[r1 + j] -= sum * t2;
             }
           }
         }
@@ -410,8 +410,18 @@ export function hessenbergQr(
       eigenvalues[i] = { re: h[i * n + i], im: 0 };
     } else {
       const form = computeT
-        ? standardizeBlockInPlace(h, n, i - 1, z)
-        : standardizeBlockInPlace(h, n, i - 1, z, l, i);
+        ? standardizeBlockInPlace(h, n, i - 1, null)
+        : standardizeBlockInPlace(h, n, i - 1, null, l, i);
+      if (zt && !(form.cs === 1 && form.sn === 0)) {
+        const r0 = (i - 1) * n;
+        const r1 = r0 + n;
+        for (let j = 0; j < n; j++) {
+          const x = zt[r0 + j];
+          const y = zt[r1 + j];
+          zt[r0 + j] = form.cs * x + form.sn * y;
+          zt[r1 + j] = form.cs * y - form.sn * x;
+        }
+      }
       eigenvalues[i - 1] = form.eigenvalue1;
       eigenvalues[i] = form.eigenvalue2;
     }
@@ -433,10 +443,11 @@ export interface RealSchurDense {
 export function realSchurDense(matrix: Dense, options: RealSchurOptions = {}): RealSchurDense {
   const n = matrix.rows;
   const { H, Q } = hessenbergDense(matrix, true);
-  const outcome = hessenbergQr(H.data, n, Q!.data, true, options.maxSweeps);
+  const zTransposed = transposeDense(Q!);
+  const outcome = hessenbergQr(H.data, n, zTransposed.data, true, options.maxSweeps);
   // Entries below the subdiagonal are exact zeros of the Hessenberg form; make sure of it.
   for (let i = 2; i < n; i++) H.data.fill(0, i * n, i * n + i - 1);
-  return { T: H, Z: Q!, converged: outcome.converged, eigenvalues: outcome.eigenvalues };
+  return { T: H, Z: transposeDense(zTransposed), converged: outcome.converged, eigenvalues: outcome.eigenvalues };
 }
 
 /** Real Schur decomposition A = Z·T·Zᵀ (T upper quasi-triangular with standardised 2×2 blocks). */

@@ -91,10 +91,11 @@ export function svdDense(matrix: Dense, wantVectors: boolean): SvdDense {
     const nanDense = (rows: number, cols: number): Dense => ({ rows, cols, data: new Float64Array(rows * cols).fill(NaN) });
     return { U: wantVectors ? nanDense(m, k) : null, s: new Float64Array(k).fill(NaN), V: wantVectors ? nanDense(n, k) : null, converged: false };
   }
-  // A·P = Q·R, then Jacobi on the columns of R: R·J = W, W's columns orthogonal.
+  // A·P = Q·R, then Jacobi on the columns of X = Rᵀ (the rows of R, contiguous in row-major storage):
+  // X·J = W with orthogonal columns. Drmač & Veselić: the transposed triangular factor of a pivoted
+  // QR converges in few sweeps. Then Rᵀ = W·Jᵀ, so A·P = (Q·J)·Σ·(W·Σ⁻¹)ᵀ.
   const factor = householderQrDense(matrix, true);
-  const R = extractR(factor, k);
-  const columns = transposeDense(R).data; // row j = column j of R
+  const columns = extractR(factor, k).data; // row j of R = column j of X
   const rotations = wantVectors ? new Float64Array(k * k) : null; // row j = column j of J
   if (rotations) for (let i = 0; i < k; i++) rotations[i * k + i] = 1;
   const converged = jacobiOrthogonaliseColumns(columns, k, rotations);
@@ -104,12 +105,7 @@ export function svdDense(matrix: Dense, wantVectors: boolean): SvdDense {
   const s = Float64Array.from(order, (j) => singular[j]);
   if (!wantVectors) return { U: null, s, V: null, converged };
 
-  // V = P·J (columns reordered), U = Q·W·Σ⁻¹ with null columns completed to an orthonormal set.
-  const V: Dense = { rows: n, cols: k, data: new Float64Array(n * k) };
-  for (let newColumn = 0; newColumn < k; newColumn++) {
-    const j = order[newColumn];
-    for (let i = 0; i < k; i++) V.data[factor.permutation[i] * k + newColumn] = rotations![j * k + i];
-  }
+  // V = P·W·Σ⁻¹ (null columns completed to an orthonormal set), U = Q·J, both reordered.
   const basis = new Float64Array(k * k); // row-major k×k: columns W_j / σ_j
   const negligible = s[0] * k * EPS;
   const missing: number[] = [];
@@ -123,13 +119,20 @@ export function svdDense(matrix: Dense, wantVectors: boolean): SvdDense {
     }
   }
   completeOrthonormalColumns(basis, k, missing);
+  const V: Dense = { rows: n, cols: k, data: new Float64Array(n * k) };
+  for (let i = 0; i < k; i++) V.data.set(basis.subarray(i * k, (i + 1) * k), factor.permutation[i] * k);
+  const orderedRotations = new Float64Array(k * k); // row-major k×k: J with reordered columns
+  for (let newColumn = 0; newColumn < k; newColumn++) {
+    const j = order[newColumn];
+    for (let i = 0; i < k; i++) orderedRotations[i * k + newColumn] = rotations![j * k + i];
+  }
   const Q = formQ(factor, k);
   const U: Dense = { rows: m, cols: k, data: new Float64Array(m * k) };
   for (let i = 0; i < m; i++) {
     for (let p = 0; p < k; p++) {
       const qip = Q.data[i * k + p];
       if (qip === 0) continue;
-      for (let j = 0; j < k; j++) U.data[i * k + j] += qip * basis[p * k + j];
+      for (let j = 0; j < k; j++) U.data[i * k + j] += qip * orderedRotations[p * k + j];
     }
   }
   return { U, s, V, converged };
