@@ -14,3 +14,28 @@ export * from './rank';
 export * from './polynomial';
 
 // ---- control-equation solvers (owned separately; added at integration) ----
+export { matrixExponential, matrixExponentialDense, matrixExponentialIntegral, type MatrixExponentialIntegral } from './expm';
+export { solveSylvester, solveSylvesterDense, type SylvesterSolution } from './sylvester';
+export {
+  solveLyapunovContinuous,
+  solveLyapunovContinuousDense,
+  solveLyapunovDiscrete,
+  solveLyapunovDiscreteDense,
+  type LyapunovSolution,
+} from './lyapunov';
+export { matrixSign, matrixSignDense, type MatrixSignResult } from './matrixSign';
+export {
+  solveContinuousRiccati,
+  type ContinuousRiccatiOptions,
+  type RiccatiFailure,
+  type RiccatiSolution,
+} from './riccatiContinuous';
+export { solveDiscreteRiccati, type DiscreteRiccatiOptions } from './riccatiDiscrete';
+export {
+  eigenvaluesByQz,
+  finiteGeneralizedEigenvalues,
+  generalizedEigenvalues,
+  generalizedEigenvaluesDense,
+  type GeneralizedEigenvalues,
+} from './qz';
+export { invariantZeros, type InvariantZerosResult } from './invariantZeros';
