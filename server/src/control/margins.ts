@@ -7,8 +7,10 @@
 // MIMO: one input at a time, the other loops closed (Skogestad & Postlethwaite's "loop-at-a-
 // time" margins): L_i = l_ii − l_io (I + L_oo)⁻¹ l_oi at each frequency.
 // On the SISO L_i(jω) (or L_i(e^{jωT}) up to π/T):
-//   gain crossovers |L_i| = 1 → phase margin PM = ∠L_i + 180° (into (−180°, 180°]), delay margin
-//     PM[rad]/ω_c (smallest over crossovers);
+//   gain crossovers |L_i| = 1 → phase margin PM = 180° − |∠L_i| with ∠L_i in (−180°, 180°] (the
+//     phase change in either direction that puts L_i on −1; given a negative sign when the closed
+//     loop is unstable), the smallest over crossovers; delay margin: a delay τ lags the phase by
+//     ωτ, so τ = (∠L_i + 180°)[rad]/ω_c, the smallest over crossovers;
 //   negative-real-axis crossings L_i = −a (phase crossovers, incl. ω = 0 and ω = ∞ / π/T) → the
 //     critical gains 1/a; the upper gain margin is the smallest 1/a above 1, the lower gain
 //     margin the largest 1/a below 1 (the gain interval around 1 over which the Nyquist count,
@@ -211,7 +213,10 @@ export function loopMargins(loop: StateSpace, domain: 'continuous' | 'discrete',
     const values = grid.map(at);
 
     // Gain crossovers.
-    const logMagnitude = (omega: number): number => Math.log(Math.hypot(at(omega).re, at(omega).im));
+    const logMagnitude = (omega: number): number => {
+      const value = at(omega);
+      return Math.log(Math.hypot(value.re, value.im));
+    };
     let phaseMarginDeg: number | null = null;
     let gainCrossover: number | null = null;
     let delayMargin: number | null = null;
@@ -221,11 +226,12 @@ export function loopMargins(loop: StateSpace, domain: 'continuous' | 'discrete',
       if (!(Number.isFinite(a) && Number.isFinite(b)) || Math.sign(a) === Math.sign(b) || a === 0) continue;
       const omega = bisectLog(logMagnitude, grid[k], grid[k + 1]);
       const value = at(omega);
-      const phase = (Math.atan2(value.im, value.re) * 180) / Math.PI;
-      let margin = phase + 180;
-      margin -= 360 * Math.round(margin / 360);
-      if (margin === -180) margin = 180;
-      const delay = margin > 0 ? ((margin * Math.PI) / 180) / omega : 0;
+      const phase = (Math.atan2(value.im, value.re) * 180) / Math.PI; // (−180°, 180°]
+      // Phase change in either direction that puts L on −1; negative when the loop is unstable.
+      const margin = (closedLoopStable ? 1 : -1) * (180 - Math.abs(phase));
+      // A delay τ only lags the phase (−ωτ): it needs phase + 180° of lag (in [0°, 360°)).
+      const lag = phase + 180;
+      const delay = closedLoopStable ? ((lag * Math.PI) / 180) / omega : 0;
       if (phaseMarginDeg === null || margin < phaseMarginDeg) {
         phaseMarginDeg = margin;
         gainCrossover = omega;
