@@ -1,0 +1,107 @@
+import { describe, expect, it } from 'vitest';
+import { loopMargins, outputFeedbackLoop, stateFeedbackLoop } from '../../server/src/control/margins';
+import { bandwidth, frequencyResponse, logarithmicGrid } from '../../server/src/control/frequencyResponse';
+
+// L(s) = 1/(s(s+1)) realised as K(sI − A)⁻¹B with A = [[0, 1], [0, −1]], B = [0; 1], K = [1 0].
+const integratorLag = stateFeedbackLoop([[0, 1], [0, -1]], [[0], [1]], [[1, 0]]);
+
+describe('loop margins against closed forms', () => {
+  it('L(s) = 1/(s(s+1)): crossover, phase margin, delay margin, no finite gain margin', () => {
+    // |L(jω)| = 1 ⇔ ω⁴ + ω² − 1 = 0 ⇔ ω_c² = (√5 − 1)/2, ω_c = 0.78615 rad/s;
+    // ∠L = −90° − atan(ω_c) ⇒ PM = 90° − atan(ω_c) = 51.83°; delay margin PM[rad]/ω_c = 1.1507 s.
+    const wc = Math.sqrt((Math.sqrt(5) - 1) / 2);
+    const pm = 90 - (Math.atan(wc) * 180) / Math.PI;
+    const result = loopMargins(integratorLag, 'continuous');
+    const loop = result.perInput[0];
+    expect(result.closedLoopStable).toBe(true);
+    expect(loop.gainCrossover as number).toBeCloseTo(wc, 10);
+    expect(wc).toBeCloseTo(0.786, 3);
+    expect(loop.phaseMarginDeg as number).toBeCloseTo(pm, 8);
+    expect(pm).toBeCloseTo(51.83, 2);
+    expect(loop.delayMargin as number).toBeCloseTo(((pm * Math.PI) / 180) / wc, 8);
+    expect(loop.upperGainMarginDb).toBe(Infinity);
+    expect(loop.lowerGainMarginDb).toBe(-Infinity);
+  });
+
+  it('L(s) = 1/(s(s+1)): peak sensitivity equals the maximum of the closed form |s(s+1)/(s² + s + 1)|', () => {
+    // Brute force on the closed form, independent of the state-space evaluation.
+    let peak = 0;
+    for (let k = 0; k <= 400000; k++) {
+      const w = 1e-3 * Math.pow(10, (5 * k) / 400000);
+      const numerator = Math.hypot(-w * w, w);
+      const denominator = Math.hypot(1 - w * w, w);
+      peak = Math.max(peak, numerator / denominator);
+    }
+    const loop = loopMargins(integratorLag, 'continuous').perInput[0];
+    expect(loop.peakSensitivity).toBeCloseTo(peak, 6);
+  });
+
+  it('L(s) = 2/(s+1)³: phase crossover at ω = √3 with gain margin 20·log10(4) = 12.04 dB', () => {
+    // ∠L = −3 atan ω = −180° at ω = √3, |L| = 2/(1 + 3)^{3/2} = 1/4.
+    // Controllable companion realisation of 1/(s+1)³ with gain 2 in K.
+    const A = [[0, 1, 0], [0, 0, 1], [-1, -3, -3]];
+    const result = loopMargins(stateFeedbackLoop(A, [[0], [0], [1]], [[2, 0, 0]]), 'continuous');
+    const loop = result.perInput[0];
+    expect(loop.upperGainMarginDb).toBeCloseTo(20 * Math.log10(4), 8);
+    expect(loop.upperGainCrossover as number).toBeCloseTo(Math.sqrt(3), 8);
+  });
+
+  it('L(s) = 2/(s − 1): open-loop unstable, lower gain margin 1/2 (−6.02 dB) at ω = 0', () => {
+    // 1 + kL has the root s = 1 − 2k: stable exactly for k > 1/2.
+    const result = loopMargins(stateFeedbackLoop([[1]], [[1]], [[2]]), 'continuous');
+    const loop = result.perInput[0];
+    expect(result.closedLoopStable).toBe(true);
+    expect(loop.lowerGainMarginDb).toBeCloseTo(20 * Math.log10(0.5), 10);
+    expect(loop.lowerGainCrossover).toBe(0);
+    expect(loop.upperGainMarginDb).toBe(Infinity);
+  });
+
+  it('discrete L(z) = 0.5/(z − 1): PM = 90° − θ_c/2 with θ_c = 2 asin(1/4), gain margin 4 at Nyquist', () => {
+    // e^{jθ} − 1 = 2j sin(θ/2) e^{jθ/2}: |L| = 0.25/sin(θ/2), ∠L = −90° − θ/2; L(−1) = −1/4.
+    const T = 0.1;
+    const thetaC = 2 * Math.asin(0.25);
+    const result = loopMargins(stateFeedbackLoop([[1]], [[1]], [[0.5]]), 'discrete', T);
+    const loop = result.perInput[0];
+    expect(loop.phaseMarginDeg as number).toBeCloseTo(90 - (thetaC * 90) / Math.PI, 8);
+    expect(loop.gainCrossover as number).toBeCloseTo(thetaC / T, 8);
+    expect(loop.upperGainMarginDb).toBeCloseTo(20 * Math.log10(4), 8);
+    expect(loop.upperGainCrossover as number).toBeCloseTo(Math.PI / T, 10);
+  });
+
+  it('gives each of two decoupled inputs the margins of its own loop', () => {
+    const A = [[0, 1, 0, 0], [0, -1, 0, 0], [0, 0, 0, 1], [0, 0, 0, -1]];
+    const B = [[0, 0], [1, 0], [0, 0], [0, 1]];
+    const K = [[1, 0, 0, 0], [0, 0, 1, 0]];
+    const result = loopMargins(stateFeedbackLoop(A, B, K), 'continuous');
+    const single = loopMargins(integratorLag, 'continuous').perInput[0];
+    for (const loop of result.perInput) expect(loop.phaseMarginDeg as number).toBeCloseTo(single.phaseMarginDeg as number, 8);
+  });
+
+  it('breaks an output-feedback loop at the plant input: a static controller u = −y equals state feedback K = C', () => {
+    const plant = { A: [[0, 1], [0, -1]], B: [[0], [1]], C: [[1, 0]], D: [[0]] };
+    const controller = { A: [] as number[][], B: [] as number[][], C: [[]] as number[][], D: [[-1]] };
+    const loop = outputFeedbackLoop(plant, controller);
+    const viaOutput = loopMargins(loop, 'continuous').perInput[0];
+    const viaState = loopMargins(integratorLag, 'continuous').perInput[0];
+    expect(viaOutput.phaseMarginDeg as number).toBeCloseTo(viaState.phaseMarginDeg as number, 8);
+  });
+});
+
+describe('frequency response', () => {
+  it('returns the magnitude and unwrapped phase of 1/(s+1)³ (−270° at high frequency)', () => {
+    const A = [[0, 1, 0], [0, 0, 1], [-1, -3, -3]];
+    const omegas = logarithmicGrid(0.01, 100, 20);
+    const response = frequencyResponse(A, [[0], [0], [1]], [[1, 0, 0]], [[0]], omegas, 'continuous');
+    const channel = response.channels[0];
+    omegas.forEach((w, k) => {
+      // Closed form: |G| = (1 + ω²)^{−3/2}, ∠G = −3 atan ω.
+      expect(channel.magnitudeDb[k]).toBeCloseTo(-30 * Math.log10(1 + w * w), 9);
+      expect(channel.phaseDeg[k]).toBeCloseTo((-3 * Math.atan(w) * 180) / Math.PI, 8);
+    });
+  });
+
+  it('finds the −3 dB bandwidth of 1/(s+1) at 1 rad/s', () => {
+    const omegas = logarithmicGrid(0.01, 100, 20);
+    expect(bandwidth([[-1]], [[1]], [[1]], [[0]], omegas, 'continuous') as number).toBeCloseTo(1, 8);
+  });
+});
