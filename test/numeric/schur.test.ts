@@ -88,6 +88,12 @@ describe('real Schur form', () => {
     expect(realSchur(A, { maxSweeps: 0 }).converged).toBe(false);
   });
 
+  it('reports failure for non-finite data', () => {
+    expect(realSchur([[NaN, 1], [1, 1]]).converged).toBe(false);
+    expect(realSchur([[Infinity, 1], [0, 1]]).converged).toBe(false);
+    expect(orderedRealSchur([[NaN]], (lambda) => lambda.re < 0).converged).toBe(false);
+  });
+
   it('converges on the cyclic permutation matrix, a classic stagnation case for unshifted QR', () => {
     const n = 8;
     const P = Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => (j === (i + 1) % n ? 1 : 0)));

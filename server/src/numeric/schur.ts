@@ -442,6 +442,11 @@ export interface RealSchurDense {
 /** A = Z·T·Zᵀ for a square Dense matrix. */
 export function realSchurDense(matrix: Dense, options: RealSchurOptions = {}): RealSchurDense {
   const n = matrix.rows;
+  if (!matrix.data.every(Number.isFinite)) {
+    // Non-finite data: no meaningful Schur form; report failure rather than NaN "converged".
+    const nanDense = (): Dense => ({ rows: n, cols: n, data: new Float64Array(n * n).fill(NaN) });
+    return { T: nanDense(), Z: nanDense(), converged: false, eigenvalues: Array.from({ length: n }, () => ({ re: NaN, im: NaN })) };
+  }
   const { H, Q } = hessenbergDense(matrix, true);
   const zTransposed = transposeDense(Q!);
   const outcome = hessenbergQr(H.data, n, zTransposed.data, true, options.maxSweeps);
