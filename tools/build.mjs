@@ -46,3 +46,19 @@ if (existsSync(join(root, webviewEntry))) {
     logLevel: 'warning',
   });
 }
+
+// The design report's script: the same plot module, inlined into the HTML by `loopwright report`.
+const reportEntry = 'client/src/report/reportPage.ts';
+if (existsSync(join(root, reportEntry))) {
+  await build({
+    absWorkingDir: root,
+    entryPoints: { report: reportEntry },
+    outdir: 'dist',
+    bundle: true,
+    platform: 'browser',
+    target: 'es2022',
+    format: 'iife',
+    minify: true,
+    logLevel: 'warning',
+  });
+}
