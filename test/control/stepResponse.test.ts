@@ -1,0 +1,136 @@
+import { describe, expect, it } from 'vitest';
+import { simulateStepResponses } from '../../server/src/control/stepResponse';
+import { reference } from './controlTestHelpers';
+
+describe('exact linear step response', () => {
+  it('matches scipy.signal.lsim of the closed loop (A − BK, B·Nr, C)', () => {
+    // Reference: test/reference/control_response.py; both are exact for a step input.
+    for (const c of reference.stepResponse) {
+      const result = simulateStepResponses({
+        domain: 'continuous',
+        A: c.A,
+        B: c.B,
+        C: c.C,
+        D: [[0]],
+        K: c.K,
+        prescaler: [[c.Nr]],
+        tracked: [0],
+        points: 801,
+        duration: 8,
+        maxReturnedPoints: 801,
+      });
+      expect(result.ok).toBe(true);
+      const y = result.experiments[0].linear.outputs[0];
+      const time = result.experiments[0].linear.time;
+      c.t.forEach((t, k) => {
+        const index = Math.round(t / 0.01);
+        expect(time[index]).toBeCloseTo(t, 12);
+        expect(Math.abs(y[index] - c.y[k])).toBeLessThan(1e-9 * Math.max(1, Math.abs(c.y[k])));
+      });
+      // Prescaler designed for unit DC gain: the exact final value is the set-point.
+      expect(result.experiments[0].linear.metrics.steadyStateError).toBeCloseTo(0, 10);
+    }
+  });
+
+  it('runs a discrete loop by its recursion: x[k+1] = 0.5x + u, u = r gives y[k] = 2(1 − 0.5^k)', () => {
+    const result = simulateStepResponses({
+      domain: 'discrete',
+      samplePeriod: 0.1,
+      A: [[0.5]],
+      B: [[1]],
+      C: [[1]],
+      D: [[0]],
+      K: [[0]],
+      prescaler: [[1]],
+      tracked: [0],
+      points: 100,
+    });
+    const y = result.experiments[0].linear.outputs[0];
+    y.slice(0, 20).forEach((value, k) => expect(value).toBeCloseTo(2 * (1 - Math.pow(0.5, k)), 14));
+    expect(result.experiments[0].linear.metrics.finalValue).toBeCloseTo(2, 12);
+    expect(result.step).toBe(0.1);
+  });
+
+  it('chooses the duration from the slowest closed-loop pole (6 time constants)', () => {
+    const result = simulateStepResponses({
+      domain: 'continuous', A: [[-0.5]], B: [[1]], C: [[1]], D: [[0]], K: [[0]], prescaler: [[0.5]], tracked: [0], points: 500,
+    });
+    expect(result.duration).toBeCloseTo(12, 12);
+    expect(result.experiments[0].linear.time.length).toBeLessThanOrEqual(500);
+  });
+});
+
+describe('saturation, windup and the nonlinear plant', () => {
+  // Hoist-like plant: first-order lag 1/(s + 1) with integral action on the output.
+  const plant = { A: [[-1]], B: [[1]], C: [[1]], D: [[0]] };
+  const integral = { outputs: [0], Ki: [[-4]] }; // u = −Kx − Ki ξ with ξ' = r − y
+
+  it('keeps saturated inputs within limits and shows windup that clamping removes', () => {
+    const result = simulateStepResponses({
+      domain: 'continuous',
+      ...plant,
+      K: [[1]],
+      tracked: [0],
+      integral,
+      limits: [{ low: -1.2, high: 1.2 }],
+      points: 4000,
+      duration: 20,
+    });
+    const experiment = result.experiments[0];
+    expect(experiment.linear.metrics.inputs[0].exceedsLimit).toBe(true);
+    const saturated = experiment.saturated!;
+    for (const u of saturated.inputs[0]) {
+      expect(u).toBeLessThanOrEqual(1.2);
+      expect(u).toBeGreaterThanOrEqual(-1.2);
+    }
+    const antiWindup = experiment.antiWindup!;
+    expect(antiWindup.metrics.overshootPercent as number).toBeLessThan(saturated.metrics.overshootPercent as number);
+    expect(experiment.windup?.windupSignificant).toBe(true);
+    // Both reach the set-point: integral action removes the steady-state error.
+    expect(Math.abs(saturated.outputs[0][saturated.outputs[0].length - 1] - 1)).toBeLessThan(1e-3);
+  });
+
+  it('runs the controller on nonlinear equations that equal the linear model, to RK4 accuracy', () => {
+    const x0 = [2];
+    const u0 = [2];
+    const model = {
+      derivatives: (x: number[], u: number[]) => [-(x[0] - x0[0]) + (u[0] - u0[0])],
+      outputs: (x: number[]) => [x[0]],
+    };
+    const result = simulateStepResponses({
+      domain: 'continuous',
+      ...plant,
+      K: [[1]],
+      tracked: [0],
+      integral,
+      points: 2000,
+      nonlinear: { model, states: x0, inputs: u0, disturbances: [], outputs: [2] },
+    });
+    const experiment = result.experiments[0];
+    const linear = experiment.linear.outputs[0];
+    const nonlinear = experiment.nonlinear!.outputs[0];
+    // RK4 global error O(h⁴): h·|λ|max ≈ 0.005 here, far below 1e-8 relative.
+    linear.forEach((value, k) => expect(Math.abs(nonlinear[k] - value)).toBeLessThan(1e-8));
+    expect(experiment.nonlinear!.divergedAt).toBeNull();
+  });
+
+  it('steps one tracked output at a time', () => {
+    const result = simulateStepResponses({
+      domain: 'continuous',
+      A: [[-1, 0], [0, -2]],
+      B: [[1, 0], [0, 2]],
+      C: [[1, 0], [0, 1]],
+      D: [[0, 0], [0, 0]],
+      K: [[0, 0], [0, 0]],
+      prescaler: [[1, 0], [0, 1]],
+      tracked: [0, 1],
+      stepSizes: [2, 3],
+      points: 1000,
+    });
+    expect(result.experiments).toHaveLength(2);
+    const [first, second] = result.experiments;
+    expect(first.linear.metrics.finalValue).toBeCloseTo(2, 12);
+    expect(Math.max(...first.linear.outputs[1].map(Math.abs))).toBe(0);
+    expect(second.linear.metrics.finalValue).toBeCloseTo(3, 12);
+  });
+});
