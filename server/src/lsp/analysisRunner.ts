@@ -1,0 +1,128 @@
+// Runs slow analyses one at a time in a worker thread, newest version per document first.
+// A newer version of the document being analysed terminates the worker (the cheapest and
+// surest cancellation: the engine need not poll) and a fresh worker starts at once.
+// Without the bundled worker file (tests running the sources) the analysis runs in-process.
+import { existsSync } from 'node:fs';
+import { Worker } from 'node:worker_threads';
+import type { AnalysisSettings } from '../control/settings';
+import { runSlowAnalysis, type AnalysisJob, type AnalysisReply, type SlowResult } from './slowAnalysis';
+
+export type SlowOutcome = { result: SlowResult } | { error: string } | { superseded: true };
+
+interface Pending {
+  job: AnalysisJob;
+  resolve: (outcome: SlowOutcome) => void;
+}
+
+export class AnalysisRunner {
+  private worker: Worker | null = null;
+  private running: Pending | null = null;
+  private readonly queue = new Map<string, Pending>();
+  private nextJob = 1;
+  private disposed = false;
+
+  constructor(
+    private readonly workerPath: string | null,
+    private readonly log: (message: string) => void,
+  ) {
+    if (workerPath && !existsSync(workerPath)) this.workerPath = null;
+  }
+
+  get usesWorker(): boolean {
+    return this.workerPath !== null;
+  }
+
+  /** Analyses a version; an older request for the same document resolves as superseded. */
+  analyse(uri: string, version: number, text: string, settings: Partial<AnalysisSettings>): Promise<SlowOutcome> {
+    return new Promise((resolve) => {
+      this.cancel(uri);
+      this.queue.set(uri, { job: { job: this.nextJob++, uri, version, text, settings }, resolve });
+      this.pump();
+    });
+  }
+
+  /** Abandons queued and running work for a document (a newer edit or a close). */
+  cancel(uri: string): void {
+    const queued = this.queue.get(uri);
+    if (queued) {
+      this.queue.delete(uri);
+      queued.resolve({ superseded: true });
+    }
+    if (this.running?.job.uri === uri) {
+      const running = this.running;
+      this.running = null;
+      this.stopWorker();
+      running.resolve({ superseded: true });
+      this.pump();
+    }
+  }
+
+  dispose(): void {
+    this.disposed = true;
+    for (const uri of [...this.queue.keys()]) this.cancel(uri);
+    if (this.running) this.cancel(this.running.job.uri);
+    this.stopWorker();
+  }
+
+  private pump(): void {
+    if (this.running || this.disposed) return;
+    const next = this.queue.entries().next();
+    if (next.done) return;
+    const [uri, pending] = next.value;
+    this.queue.delete(uri);
+    this.running = pending;
+    if (this.workerPath) this.runInWorker(pending);
+    else this.runInProcess(pending);
+  }
+
+  private finish(pending: Pending, outcome: SlowOutcome): void {
+    if (this.running !== pending) return; // cancelled meanwhile; already resolved
+    this.running = null;
+    pending.resolve(outcome);
+    this.pump();
+  }
+
+  private runInProcess(pending: Pending): void {
+    setImmediate(() => {
+      if (this.running !== pending) return;
+      try {
+        const result = runSlowAnalysis(pending.job.text, pending.job.settings, () => this.running !== pending);
+        this.finish(pending, { result });
+      } catch (error) {
+        this.finish(pending, { error: error instanceof Error ? error.stack ?? error.message : String(error) });
+      }
+    });
+  }
+
+  private runInWorker(pending: Pending): void {
+    const worker = this.ensureWorker();
+    worker.postMessage(pending.job);
+  }
+
+  private ensureWorker(): Worker {
+    if (this.worker) return this.worker;
+    const worker = new Worker(this.workerPath!);
+    worker.on('message', (reply: AnalysisReply) => {
+      const pending = this.running;
+      if (!pending || pending.job.job !== reply.job) return;
+      this.finish(pending, 'result' in reply ? { result: reply.result } : { error: reply.error });
+    });
+    worker.on('error', (error) => {
+      this.log(`analysis worker failed: ${error.stack ?? error.message}`);
+    });
+    worker.on('exit', (code) => {
+      if (this.worker !== worker) return; // terminated on purpose
+      this.worker = null;
+      const pending = this.running;
+      if (pending) this.finish(pending, { error: `analysis worker stopped (exit code ${code})` });
+    });
+    this.worker = worker;
+    return worker;
+  }
+
+  private stopWorker(): void {
+    const worker = this.worker;
+    this.worker = null;
+    if (worker) void worker.terminate();
+  }
+}

@@ -1,0 +1,492 @@
+// The language server: document sync, one analysis per document version, and protocol
+// handlers that call the pure ide/ functions and convert their records (./convert).
+//   - every change: fast checks (syntax, names, shapes) on this thread, diagnostics published
+//     at once, stamped with the version; diagnostics of the previous slow analysis ride along,
+//     moved with the edit, so warnings do not flicker while typing;
+//   - after `loopwright.debounceMs` without edits: slow analyses in a worker thread; a newer
+//     edit abandons the older run; a result is published only if its version is still current;
+//   - requests answer from the latest fast check (and the slow reports of the same version).
+import { createHash } from 'node:crypto';
+import { join } from 'node:path';
+import {
+  CodeLensRefreshRequest,
+  DidChangeConfigurationNotification,
+  TextDocumentSyncKind,
+  type Connection,
+  type Diagnostic as LspDiagnostic,
+  type InitializeParams,
+  type InitializeResult,
+  type TextDocumentContentChangeEvent,
+} from 'vscode-languageserver';
+import { TextDocument } from 'vscode-languageserver-textdocument';
+import { byPosition, checkText, type DocumentAnalysis, type FastCheck } from '../analyze';
+import type { Diagnostic } from '../model/types';
+import { codeActions } from '../ide/codeActions';
+import { codeLenses } from '../ide/codeLens';
+import { completions } from '../ide/completion';
+import { documentSymbols } from '../ide/documentSymbols';
+import { foldingRanges } from '../ide/folding';
+import { formatDocument } from '../ide/format';
+import { hoverAt } from '../ide/hover';
+import { inlayHints } from '../ide/inlayHints';
+import { definitionAt, highlightsAt, referencesAt } from '../ide/navigation';
+import { prepareRename, renameAt } from '../ide/rename';
+import { semanticTokens } from '../ide/semanticTokens';
+import { signatureHelp } from '../ide/signatureHelp';
+import type { AnalysisView } from '../ide/view';
+import { AnalysisRunner } from './analysisRunner';
+import {
+  fromLspDiagnostic,
+  semanticTokensLegend,
+  toLspCodeAction,
+  toLspCodeLens,
+  toLspCompletionItem,
+  toLspDiagnostic,
+  toLspDocumentSymbol,
+  toLspFoldingRange,
+  toLspHover,
+  toLspInlayHint,
+  toLspSemanticTokens,
+  toLspSignatureHelp,
+  toLspTextEdit,
+} from './convert';
+import { exportController, type ExportFormat } from './exportGains';
+import { defaultServerSettings, readServerSettings, settingsFromInitializationOptions, type ServerSettings } from './settings';
+import { shiftRange } from './shiftRanges';
+import type { SlowResult } from './slowAnalysis';
+
+export const SERVER_NAME = 'loopwright';
+export const SERVER_VERSION = '0.1.0';
+
+/** Custom protocol shared with the client (client/src/protocol.ts holds the same names). */
+export const ANALYSIS_UPDATED = 'loopwright/analysisUpdated';
+const CONTROLLERS_REQUEST = 'loopwright/controllers';
+const CONTROLLER_DATA_REQUEST = 'loopwright/controllerData';
+const EXPORT_REQUEST = 'loopwright/export';
+const REPORT_REQUEST = 'loopwright/report';
+
+interface DocumentState {
+  document: TextDocument;
+  fast: FastCheck;
+  /** The slow analysis of `fast` (same version), once it arrived. */
+  slow: SlowResult | null;
+  /** Slow-only diagnostics of the last analysed version, moved along with later edits. */
+  carried: Diagnostic[];
+  timer: ReturnType<typeof setTimeout> | null;
+  analysedVersion: number | null;
+}
+
+export interface ServerOptions {
+  /** Path of the bundled worker; defaults to worker.cjs beside the running bundle. */
+  workerPath?: string | null;
+}
+
+function defaultWorkerPath(): string | null {
+  return typeof __dirname === 'string' ? join(__dirname, 'worker.cjs') : null;
+}
+
+export function startServer(connection: Connection, options: ServerOptions = {}): void {
+  const documents = new Map<string, DocumentState>();
+  let settings: ServerSettings = defaultServerSettings;
+  let capabilities: InitializeParams['capabilities'] = {};
+  let configurationPull = false;
+  const log = (message: string) => connection.console.error(message);
+  const runner = new AnalysisRunner(options.workerPath === undefined ? defaultWorkerPath() : options.workerPath, log);
+
+  /** Every handler answers; a failure is logged and gives the empty answer. */
+  function guard<P, R>(name: string, empty: R, handler: (params: P) => R | Promise<R>): (params: P) => Promise<R> {
+    return async (params: P) => {
+      try {
+        return await handler(params);
+      } catch (error) {
+        log(`${name} failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
+        return empty;
+      }
+    };
+  }
+
+  function viewOf(state: DocumentState): AnalysisView {
+    if (!state.slow) return state.fast;
+    return {
+      ...state.fast,
+      diagnostics: state.slow.diagnostics,
+      plants: state.slow.plants,
+      controllers: state.slow.controllers,
+      settings: state.slow.settings,
+      skipped: state.slow.skipped,
+    };
+  }
+
+  function fullAnalysis(state: DocumentState): DocumentAnalysis | null {
+    const view = viewOf(state);
+    if (!view.plants || !view.controllers || !view.settings) return null;
+    return view as DocumentAnalysis;
+  }
+
+  function publish(state: DocumentState, diagnostics: Diagnostic[]): void {
+    const uri = state.document.uri;
+    void connection.sendDiagnostics({
+      uri,
+      version: state.document.version,
+      diagnostics: diagnostics.map((diagnostic) => toLspDiagnostic(diagnostic, uri)),
+    });
+  }
+
+  function onText(uri: string, document: TextDocument, changes: TextDocumentContentChangeEvent[] | null): void {
+    const previous = documents.get(uri);
+    let carried: Diagnostic[] = [];
+    if (previous && changes) {
+      carried = previous.slow ? previous.slow.slowDiagnostics : previous.carried;
+      for (const change of changes) {
+        if (!('range' in change) || !change.range) {
+          carried = [];
+          break;
+        }
+        const moved: Diagnostic[] = [];
+        for (const diagnostic of carried) {
+          const range = shiftRange(diagnostic.range, { range: change.range, text: change.text });
+          if (range) moved.push({ ...diagnostic, range, related: undefined });
+        }
+        carried = moved;
+      }
+    }
+    if (previous?.timer) clearTimeout(previous.timer);
+    runner.cancel(uri);
+    let fast: FastCheck;
+    try {
+      fast = checkText(document.getText());
+    } catch (error) {
+      log(`fast check failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
+      return;
+    }
+    const state: DocumentState = { document, fast, slow: null, carried, timer: null, analysedVersion: null };
+    documents.set(uri, state);
+    publish(state, [...fast.diagnostics, ...carried].sort(byPosition));
+    scheduleSlow(state);
+  }
+
+  function scheduleSlow(state: DocumentState): void {
+    const run = () => {
+      state.timer = null;
+      if (documents.get(state.document.uri) !== state) return;
+      void analyseSlow(state);
+    };
+    if (settings.debounceMs <= 0) run();
+    else state.timer = setTimeout(run, settings.debounceMs);
+  }
+
+  async function analyseSlow(state: DocumentState): Promise<void> {
+    const uri = state.document.uri;
+    const version = state.document.version;
+    const outcome = await runner.analyse(uri, version, state.fast.text, settings.analysis);
+    if (documents.get(uri) !== state || state.document.version !== version) return; // stale: never published
+    if ('superseded' in outcome) return;
+    if ('error' in outcome) {
+      log(`analysis of ${uri} (version ${version}) failed: ${outcome.error}`);
+      state.carried = [];
+      publish(state, state.fast.diagnostics);
+    } else {
+      state.slow = outcome.result;
+      state.carried = [];
+      publish(state, outcome.result.diagnostics);
+    }
+    state.analysedVersion = version;
+    void connection.sendNotification(ANALYSIS_UPDATED, { uri, version });
+    if (capabilities.workspace?.codeLens?.refreshSupport) void connection.sendRequest(CodeLensRefreshRequest.type).catch(() => undefined);
+    if (capabilities.workspace?.inlayHint?.refreshSupport) void connection.languages.inlayHint.refresh().catch(() => undefined);
+  }
+
+  async function pullSettings(): Promise<void> {
+    if (!configurationPull) return;
+    try {
+      const raw = await connection.workspace.getConfiguration({ section: 'loopwright' });
+      settings = readServerSettings(raw);
+    } catch (error) {
+      log(`reading settings failed: ${error instanceof Error ? error.message : String(error)}`);
+    }
+  }
+
+  function reanalyseAll(): void {
+    for (const state of documents.values()) {
+      state.slow = null;
+      if (state.timer) clearTimeout(state.timer);
+      runner.cancel(state.document.uri);
+      scheduleSlow(state);
+    }
+  }
+
+  connection.onInitialize((params): InitializeResult => {
+    capabilities = params.capabilities;
+    settings = settingsFromInitializationOptions(params.initializationOptions);
+    configurationPull = !!capabilities.workspace?.configuration;
+    return {
+      capabilities: {
+        textDocumentSync: { openClose: true, change: TextDocumentSyncKind.Incremental, save: false },
+        hoverProvider: true,
+        completionProvider: { triggerCharacters: [' ', ',', '(', '['], resolveProvider: false },
+        signatureHelpProvider: { triggerCharacters: ['(', ','], retriggerCharacters: [','] },
+        definitionProvider: true,
+        referencesProvider: true,
+        documentHighlightProvider: true,
+        documentSymbolProvider: { label: 'Loopwright' },
+        codeActionProvider: { codeActionKinds: ['quickfix'] },
+        codeLensProvider: { resolveProvider: false },
+        documentFormattingProvider: true,
+        renameProvider: { prepareProvider: true },
+        foldingRangeProvider: true,
+        semanticTokensProvider: { legend: semanticTokensLegend, full: true, range: false },
+        inlayHintProvider: { resolveProvider: false },
+      },
+      serverInfo: { name: SERVER_NAME, version: SERVER_VERSION },
+    };
+  });
+
+  connection.onInitialized(async () => {
+    if (configurationPull) {
+      await pullSettings();
+      if (capabilities.workspace?.didChangeConfiguration?.dynamicRegistration) {
+        void connection.client.register(DidChangeConfigurationNotification.type, { section: 'loopwright' }).catch(() => undefined);
+      }
+      reanalyseAll();
+    }
+  });
+
+  connection.onDidChangeConfiguration(async (params) => {
+    try {
+      if (configurationPull) await pullSettings();
+      else {
+        const section = (params.settings as Record<string, unknown> | null)?.loopwright;
+        if (section !== undefined) settings = readServerSettings(section);
+      }
+      reanalyseAll();
+    } catch (error) {
+      log(`settings change failed: ${error instanceof Error ? error.message : String(error)}`);
+    }
+  });
+
+  connection.onDidOpenTextDocument((params) => {
+    const { uri, languageId, version, text } = params.textDocument;
+    onText(uri, TextDocument.create(uri, languageId, version, text), null);
+  });
+
+  connection.onDidChangeTextDocument((params) => {
+    const state = documents.get(params.textDocument.uri);
+    if (!state) return;
+    try {
+      const document = TextDocument.update(state.document, params.contentChanges, params.textDocument.version);
+      onText(params.textDocument.uri, document, params.contentChanges);
+    } catch (error) {
+      log(`change failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
+    }
+  });
+
+  connection.onDidCloseTextDocument((params) => {
+    const uri = params.textDocument.uri;
+    const state = documents.get(uri);
+    if (state?.timer) clearTimeout(state.timer);
+    runner.cancel(uri);
+    documents.delete(uri);
+    void connection.sendDiagnostics({ uri, diagnostics: [] });
+  });
+
+  const stateOf = (uri: string) => documents.get(uri);
+
+  connection.onHover(
+    guard('hover', null, (params) => {
+      const state = stateOf(params.textDocument.uri);
+      const hover = state && hoverAt(viewOf(state), params.position);
+      return hover ? toLspHover(hover) : null;
+    }),
+  );
+
+  connection.onCompletion(
+    guard('completion', [], (params) => {
+      const state = stateOf(params.textDocument.uri);
+      if (!state) return [];
+      const snippets = !!capabilities.textDocument?.completion?.completionItem?.snippetSupport;
+      return completions(state.fast, params.position).map((record) => toLspCompletionItem(record, snippets));
+    }),
+  );
+
+  connection.onSignatureHelp(
+    guard('signature help', null, (params) => {
+      const state = stateOf(params.textDocument.uri);
+      const help = state && signatureHelp(state.fast, params.position);
+      return help ? toLspSignatureHelp(help) : null;
+    }),
+  );
+
+  connection.onDefinition(
+    guard('definition', null, (params) => {
+      const state = stateOf(params.textDocument.uri);
+      const range = state && definitionAt(state.fast, params.position);
+      return range ? { uri: params.textDocument.uri, range } : null;
+    }),
+  );
+
+  connection.onReferences(
+    guard('references', [], (params) => {
+      const state = stateOf(params.textDocument.uri);
+      if (!state) return [];
+      return referencesAt(state.fast, params.position, params.context.includeDeclaration).map((range) => ({ uri: params.textDocument.uri, range }));
+    }),
+  );
+
+  connection.onDocumentHighlight(
+    guard('highlight', [], (params) => {
+      const state = stateOf(params.textDocument.uri);
+      if (!state) return [];
+      return highlightsAt(state.fast, params.position).map((highlight) => ({ range: highlight.range, kind: highlight.write ? 3 : 2 }));
+    }),
+  );
+
+  connection.onDocumentSymbol(
+    guard('document symbols', [], (params) => {
+      const state = stateOf(params.textDocument.uri);
+      return state ? documentSymbols(state.fast).map(toLspDocumentSymbol) : [];
+    }),
+  );
+
+  connection.onCodeAction(
+    guard('code actions', [], (params) => {
+      const state = stateOf(params.textDocument.uri);
+      if (!state) return [];
+      const view = viewOf(state);
+      // Prefer our own record of each diagnostic (the client may drop `data`).
+      const pairs = params.context.diagnostics.map((lsp) => {
+        const own = view.diagnostics.find(
+          (diagnostic) =>
+            diagnostic.code === String(lsp.code ?? '') &&
+            diagnostic.range.start.line === lsp.range.start.line &&
+            diagnostic.range.start.character === lsp.range.start.character &&
+            diagnostic.range.end.line === lsp.range.end.line &&
+            diagnostic.range.end.character === lsp.range.end.character,
+        );
+        return { lsp, own: own ?? fromLspDiagnostic(lsp) };
+      });
+      const fixes = codeActions(view, params.range, pairs.map((pair) => pair.own));
+      return fixes.map((fix) => toLspCodeAction(fix, params.textDocument.uri, pairs.find((pair) => pair.own === fix.diagnostic)?.lsp as LspDiagnostic | undefined));
+    }),
+  );
+
+  connection.onCodeLens(
+    guard('code lenses', [], (params) => {
+      const state = stateOf(params.textDocument.uri);
+      if (!state) return [];
+      return codeLenses(viewOf(state), settings.lenses).map((lens) => toLspCodeLens(lens, params.textDocument.uri));
+    }),
+  );
+
+  connection.onDocumentFormatting(
+    guard('formatting', [], (params) => {
+      const state = stateOf(params.textDocument.uri);
+      return state ? formatDocument(state.fast.text).map(toLspTextEdit) : [];
+    }),
+  );
+
+  connection.onPrepareRename(
+    guard('prepare rename', null, (params) => {
+      const state = stateOf(params.textDocument.uri);
+      return state ? prepareRename(state.fast, params.position) : null;
+    }),
+  );
+
+  connection.onRenameRequest(async (params) => {
+    const state = stateOf(params.textDocument.uri);
+    if (!state) return null;
+    let result;
+    try {
+      result = renameAt(state.fast, params.position, params.newName);
+    } catch (error) {
+      log(`rename failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
+      return null;
+    }
+    if ('error' in result) throw new Error(result.error); // shown to the user by the client
+    return { changes: { [params.textDocument.uri]: result.edits.map(toLspTextEdit) } };
+  });
+
+  connection.onFoldingRanges(
+    guard('folding', [], (params) => {
+      const state = stateOf(params.textDocument.uri);
+      return state ? foldingRanges(state.fast).map(toLspFoldingRange) : [];
+    }),
+  );
+
+  connection.languages.semanticTokens.on(
+    guard('semantic tokens', { data: [] }, (params) => {
+      const state = stateOf(params.textDocument.uri);
+      return state ? toLspSemanticTokens(semanticTokens(state.fast)) : { data: [] };
+    }),
+  );
+
+  connection.languages.inlayHint.on(
+    guard('inlay hints', [], (params) => {
+      const state = stateOf(params.textDocument.uri);
+      return state ? inlayHints(state.fast, params.range).map(toLspInlayHint) : [];
+    }),
+  );
+
+  // ---------------------------------------------------------------- client protocol
+
+  connection.onRequest(
+    CONTROLLERS_REQUEST,
+    guard('controllers', { controllers: [] }, (params: { uri: string }) => {
+      const state = stateOf(params.uri);
+      if (!state) return { controllers: [] };
+      const view = viewOf(state);
+      return {
+        controllers: view.model.controllers.map((controller, index) => ({
+          name: controller.name,
+          plant: controller.plantName,
+          designed: view.controllers?.[index]?.designed ?? false,
+          line: controller.range.start.line,
+        })),
+      };
+    }),
+  );
+
+  connection.onRequest(
+    CONTROLLER_DATA_REQUEST,
+    guard('controller data', null, (params: { uri: string; controller: string }) => {
+      const state = stateOf(params.uri);
+      if (!state) return { report: null, plant: null, version: -1 };
+      const analysis = fullAnalysis(state);
+      const version = state.document.version;
+      if (!analysis) return { report: null, plant: null, version, skipped: { reason: 'pending', detail: 'analysis in progress' } };
+      const index = analysis.model.controllers.findIndex((controller) => controller.name === params.controller);
+      const report = index >= 0 ? analysis.controllers[index] ?? null : null;
+      const plantIndex = index >= 0 ? analysis.model.controllers[index].plantIndex : null;
+      const plant = plantIndex === null ? null : analysis.plants[plantIndex] ?? null;
+      return { report, plant, version, ...(analysis.skipped ? { skipped: analysis.skipped } : {}) };
+    }),
+  );
+
+  connection.onRequest(
+    EXPORT_REQUEST,
+    guard('export', { text: null, reason: 'export failed (see the server log)' }, (params: { uri: string; controller: string; format: ExportFormat }) => {
+      const state = stateOf(params.uri);
+      const analysis = state && fullAnalysis(state);
+      if (!state || !analysis) return { text: null, reason: 'the analysis is not finished yet' };
+      const sourceHash = createHash('sha256').update(state.fast.text).digest('hex');
+      return exportController(analysis, params.controller, params.format, { version: SERVER_VERSION, sourceHash });
+    }),
+  );
+
+  connection.onRequest(
+    REPORT_REQUEST,
+    guard('report', { html: '' }, async (params: { uri: string }) => {
+      const state = stateOf(params.uri);
+      const analysis = state && fullAnalysis(state);
+      if (!state || !analysis) return { html: '' };
+      const { reportHtml } = await import('./report');
+      return { html: reportHtml(params.uri, state.fast.text, analysis, SERVER_VERSION) };
+    }),
+  );
+
+  connection.onShutdown(() => {
+    for (const state of documents.values()) if (state.timer) clearTimeout(state.timer);
+    runner.dispose();
+  });
+
+  connection.listen();
+}

@@ -1,0 +1,60 @@
+// The slow part of one document version, as a structured-clone-safe record: what the worker
+// thread posts back (the main thread already holds the syntax tree and checked model of that
+// version, so only diagnostics and reports travel).
+import { analyzeFastCheck, checkText } from '../analyze';
+import type { AnalysisSettings } from '../control/settings';
+import type { ControllerReport, PlantReport } from '../control/design';
+import type { Diagnostic } from '../model/types';
+
+export interface SlowResult {
+  /** All diagnostics of the version, in the order `analyze` gives them. */
+  diagnostics: Diagnostic[];
+  /** Those the slow analyses added (carried over, shifted, while the next version analyses). */
+  slowDiagnostics: Diagnostic[];
+  plants: PlantReport[];
+  controllers: ControllerReport[];
+  settings: AnalysisSettings;
+  skipped?: { reason: 'too-large' | 'cancelled'; detail: string };
+}
+
+export interface AnalysisJob {
+  job: number;
+  uri: string;
+  version: number;
+  text: string;
+  settings: Partial<AnalysisSettings>;
+}
+
+export type AnalysisReply =
+  | { job: number; uri: string; version: number; result: SlowResult }
+  | { job: number; uri: string; version: number; error: string };
+
+export function runSlowAnalysis(text: string, settings: Partial<AnalysisSettings>, isCancelled?: () => boolean): SlowResult {
+  const fast = checkText(text);
+  const analysis = analyzeFastCheck(fast, settings, { isCancelled });
+  const fastSet = new Set(fast.diagnostics);
+  const result: SlowResult = {
+    diagnostics: analysis.diagnostics,
+    slowDiagnostics: analysis.diagnostics.filter((diagnostic) => !fastSet.has(diagnostic)),
+    plants: analysis.plants,
+    controllers: analysis.controllers,
+    settings: analysis.settings,
+  };
+  if (analysis.skipped) result.skipped = analysis.skipped;
+  return result;
+}
+
+/** Drops what structured clone cannot carry (functions), keeping every plain field. */
+export function cloneable<T>(value: T): T {
+  return JSON.parse(
+    JSON.stringify(value, (_key, item) => {
+      if (typeof item === 'function') return undefined;
+      if (typeof item === 'number' && !Number.isFinite(item)) return { __nonFinite: String(item) };
+      return item;
+    }),
+    (_key, item) => {
+      if (item && typeof item === 'object' && typeof item.__nonFinite === 'string') return Number(item.__nonFinite);
+      return item;
+    },
+  ) as T;
+}
