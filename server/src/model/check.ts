@@ -78,7 +78,16 @@ function guardedPlant(decl: PlantDecl, out: Diagnostic[], overrides: Readonly<Re
   } catch (error) {
     out.push(...local);
     out.push(internalError.create(decl.name.range, [describeError(error)]));
-    return { checked: emptyPlant(decl), signals: collectSignals(decl, []), parameters: new Map() };
+    const signals: SignalTable = {
+      states: [],
+      inputs: [],
+      outputs: [],
+      disturbances: [],
+      byName: new Map(),
+      declared: { state: false, input: false, output: false, disturbance: false },
+      lines: [],
+    };
+    return { checked: emptyPlant(decl), signals, parameters: new Map() };
   }
 }
 
