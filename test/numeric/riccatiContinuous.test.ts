@@ -24,6 +24,22 @@ describe('solveContinuousRiccati (Laub Schur method + Newton–Kleinman)', () =>
     expect(s.closedLoopEigenvalues.every((l) => l.re < 0)).toBe(true);
   });
 
+  it('double integrator with position weight only (Q = diag(1, 0), singular but detectable)', () => {
+    // X = [√2 1; 1 √2], K = [1 √2]: verified by substitution into the equation (from memory as the
+    // classic √2-damping result; the substitution is the check).
+    const s = solveContinuousRiccati([[0, 1], [0, 0]], [[0], [1]], [[1, 0], [0, 0]], [[1]]);
+    expect(s.ok).toBe(true);
+    expect(maxAbsDiff(s.X, [[Math.SQRT2, 1], [1, Math.SQRT2]])).toBeLessThan(16 * EPS * 2);
+    expect(maxAbsDiff(s.gain, [[1, Math.SQRT2]])).toBeLessThan(16 * EPS * 2);
+  });
+
+  it('gives X = 0, K = 0 for a stable plant with Q = 0', () => {
+    const s = solveContinuousRiccati([[-1, 2], [0, -3]], [[1], [1]], [[0, 0], [0, 0]], [[1]]);
+    expect(s.ok).toBe(true);
+    expect(frob(s.X)).toBeLessThan(10 * EPS);
+    expect(frob(s.gain)).toBeLessThan(10 * EPS);
+  });
+
   it('CAREX #2: X = (1 + √2)·Q', () => {
     // Benner, Laub & Mehrmann 1995 (CAREX), example 2; checked by substitution (residual ≈ 1e-14).
     const Q = [[9, 6], [6, 4]];

@@ -305,9 +305,10 @@ export function solveContinuousRiccati(
   const H = hamiltonian(Abar, G, Qbar, sigma);
   const normH = normFrobeniusDense(H);
   // Eigenvalues within this distance of the imaginary axis are treated as on it: Hamiltonian
-  // eigenvalues are perturbed by about ε‖H‖ (simple) and √(ε)‖H‖ (2×2 Jordan blocks, which
-  // non-stabilisable or undetectable modes on the axis produce), times the dimension.
-  const axisTolerance = 2 * n * Math.sqrt(EPS) * normH;
+  // eigenvalues are perturbed by about ε‖H‖ when simple and √ε‖H‖ in 2×2 Jordan blocks, which
+  // uncontrollable or unobservable modes on the axis produce. A genuine optimal closed-loop pole
+  // closer to the axis than √ε‖H‖ is therefore reported as a failure (fragile by construction).
+  const axisTolerance = Math.sqrt(EPS) * normH;
 
   let X: Dense | null = null;
   let failure: RiccatiFailure | undefined;

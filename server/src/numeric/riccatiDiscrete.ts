@@ -178,9 +178,9 @@ export function solveDiscreteRiccati(
     conditionEstimate: discreteConditionEstimate(terms.closedLoop, Abar, G, Qbar, X),
   };
   if (!allFinite(X, gain)) return { ...result, ok: false, failure: 'no-convergence' };
-  // Eigenvalues within n·√ε of the unit circle count as on it (a double eigenvalue there, as
-  // non-stabilisable or undetectable modes on the circle produce, moves by about √ε).
-  const circleTolerance = n * Math.sqrt(EPS);
+  // Eigenvalues within √ε·max(1, ‖A‖_F) of the unit circle count as on it (a double eigenvalue
+  // there, as uncontrollable or unobservable modes on the circle produce, moves by about that much).
+  const circleTolerance = Math.sqrt(EPS) * Math.max(1, normFrobeniusDense(inputs.A));
   const radius = Math.max(...closedLoopEigenvalues.map((lambda) => Math.hypot(lambda.re, lambda.im)));
   if (Math.abs(radius - 1) <= circleTolerance) return { ...result, ok: false, failure: 'unit-circle-eigenvalues' };
   if (!(radius < 1)) return { ...result, ok: false, failure: 'not-stabilisable' };
