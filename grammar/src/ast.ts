@@ -20,7 +20,11 @@ export interface Node {
   endOffset: number;
 }
 
-/** A name as written, with its own range (for go-to-definition, rename, diagnostics). */
+/**
+ * A name as written, with its own range (for go-to-definition, rename, diagnostics).
+ * When the parser expected a name and found none, `name` is '' and the range is zero-width at
+ * the spot; a syntax diagnostic (code `syntax/missing-name`) covers it.
+ */
 export interface Identifier extends Node {
   kind: 'identifier';
   name: string;

@@ -477,9 +477,25 @@ class PlantParser extends EmbeddedActionsParser {
     const first = this.OPTION(() => this.CONSUME(T.Identifier));
     this.ACTION(() => names.push(first ? this.identifier(first) : this.missingName(what)));
     this.MANY(() => {
-      this.CONSUME(T.Comma);
-      const name = this.OPTION2(() => this.CONSUME2(T.Identifier));
-      this.ACTION(() => names.push(name ? this.identifier(name) : this.missingName('a name after `,`')));
+      this.OR([
+        {
+          ALT: () => {
+            this.CONSUME(T.Comma);
+            const name = this.OPTION2(() => this.CONSUME2(T.Identifier));
+            this.ACTION(() => names.push(name ? this.identifier(name) : this.missingName('a name after `,`')));
+          },
+        },
+        {
+          // `states x y`: keep the name, report the missing comma.
+          ALT: () => {
+            const name = this.CONSUME3(T.Identifier);
+            this.ACTION(() => {
+              this.report('syntax/missing-token', 'expected `,` between names', name.startOffset, tokenEnd(name));
+              names.push(this.identifier(name));
+            });
+          },
+        },
+      ]);
     });
     return names;
   });
@@ -1042,10 +1058,12 @@ function parseStatement(
     if (parser.blamed.has(token.startOffset)) continue;
     const last = statement.tokens[statement.tokens.length - 1];
     const isLeftover = error.name === 'NotAllInputParsedException';
+    const head = statement.tokens[0];
+    const lineName = `\`${head.image}\` line`;
     parser.report(
       'syntax/unexpected-token',
       isLeftover
-        ? `unexpected ${describeToken(token)} after the end of the ${kind} line`
+        ? `unexpected ${describeToken(token)}: the ${lineName} is already complete here`
         : `unexpected ${describeToken(token)}`,
       token.startOffset,
       isLeftover ? Math.max(tokenEnd(token), tokenEnd(last)) : tokenEnd(token),
