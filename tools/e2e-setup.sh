@@ -40,13 +40,11 @@ else
   step "Node $node24_version present"
 fi
 
-# 3. the editor workbench, installed by npm running on Node 24
-code_server_bin="$code_server_dir/node_modules/code-server/out/node/entry.js"
-installed_version=""
-if [ -f "$code_server_dir/node_modules/code-server/package.json" ]; then
-  installed_version="$("$node24/bin/node" -p "require('$code_server_dir/node_modules/code-server/package.json').version")"
-fi
-if [ ! -f "$code_server_bin" ] || [ "$installed_version" != "$code_server_version" ]; then
+# 3. the editor workbench, installed by npm running on Node 24. Its install scripts (code-server's
+# postinstall installs the editor's own modules and builds native ones against .tools/node24's
+# headers) must run, so they are allowed for this isolated folder only.
+marker="$code_server_dir/.installed-$code_server_version"
+if [ ! -f "$marker" ]; then
   step "installing code-server $code_server_version with Node 24 (takes several minutes)"
   mkdir -p "$code_server_dir"
   [ -f "$code_server_dir/package.json" ] || echo '{ "name": "loopwright-e2e-editor", "private": true }' > "$code_server_dir/package.json"
@@ -55,9 +53,16 @@ if [ ! -f "$code_server_bin" ] || [ "$installed_version" != "$code_server_versio
     export PATH="$node24/bin:$PATH"
     export npm_config_nodedir="$node24"
     export npm_config_update_notifier=false
-    npm install --no-audit --no-fund --no-save "code-server@$code_server_version" >"$tools/code-server-install.log" 2>&1 \
-      || { tail -40 "$tools/code-server-install.log"; exit 1; }
+    export npm_config_dangerously_allow_all_scripts=true
+    if [ -f node_modules/code-server/package.json ]; then
+      npm rebuild code-server argon2 >"$tools/code-server-install.log" 2>&1
+    else
+      npm install --no-audit --no-fund --no-save "code-server@$code_server_version" >"$tools/code-server-install.log" 2>&1
+    fi || { tail -40 "$tools/code-server-install.log"; exit 1; }
   )
+  [ -d "$code_server_dir/node_modules/code-server/lib/vscode/node_modules/@vscode" ] \
+    || { echo "e2e-setup: code-server's own modules are missing (see .tools/code-server-install.log)"; exit 1; }
+  touch "$marker"
 else
   step "code-server $code_server_version present"
 fi

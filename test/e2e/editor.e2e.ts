@@ -1,0 +1,139 @@
+// The extension in a real editor: language mode and highlighting, diagnostics (problems view and
+// squiggles), hover, code lens, the integral-action quick fix, and the response panel.
+// Expected numbers are worked out by hand in the comments beside each check.
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { repoRoot, startEditor, type Editor } from './harness';
+
+// The hoist sample with the torque constant misspelt in B: an unknown name the server must flag.
+const hoistText = readFileSync(join(repoRoot, 'samples', 'hoist.plant'), 'utf8');
+const faultyHoist = hoistText.replace('B = [0; kt/J]', 'B = [0; kq/J]');
+
+// Digits of a number as the editor shows it: the minus may be ASCII or U+2212.
+const minus = '[-−]';
+
+describe('Loopwright in a real editor', () => {
+  let editor: Editor;
+
+  beforeAll(async () => {
+    expect(faultyHoist).not.toBe(hoistText); // the sample still has the line this scenario edits
+    editor = await startEditor({ files: { 'faulty-hoist.plant': faultyHoist } });
+  });
+
+  afterAll(async () => {
+    await editor?.stop();
+  });
+
+  it('opens a .plant file in the plant language, with keywords highlighted', async () => {
+    await editor.openFile('hoist.plant');
+    await expect
+      .poll(() => editor.page.locator('[id="status.editor.mode"]').innerText(), { timeout: 60_000 })
+      .toContain('Plant model');
+    // The grammar colours `plant` (keyword) differently from `hoist` (a name): different token classes.
+    const line = editor.line('plant hoist {');
+    await line.waitFor();
+    const classOf = (text: string) =>
+      line.locator('span > span', { hasText: new RegExp(`^\\s*${text}\\s*$`) }).first().getAttribute('class');
+    const keywordClass = await classOf('plant');
+    const nameClass = await classOf('hoist');
+    expect(keywordClass).toMatch(/mtk\d+/);
+    expect(keywordClass).not.toBe(nameClass);
+    await editor.screenshot('highlighting');
+  });
+
+  it('lists a misspelt name in the problems view and underlines it', async () => {
+    await editor.openFile('faulty-hoist.plant');
+    const page = editor.page;
+    await page.locator('.editor-instance .squiggly-error').first().waitFor({ timeout: 60_000 });
+    await page.keyboard.press('Control+Shift+M');
+    const row = page.locator('.markers-panel .monaco-list-row', { hasText: 'kq' }).first();
+    await row.waitFor({ timeout: 60_000 });
+    expect(await row.innerText()).toMatch(/kq/);
+    await editor.screenshot('problems');
+  });
+
+  it('shows the eigenvalues of a plant when hovering its name', async () => {
+    await editor.openFile('hoist.plant');
+    const page = editor.page;
+    const name = editor.line('plant hoist {').locator('span > span', { hasText: /^hoist$/ }).first();
+    const hover = page.locator('.monaco-hover:not(.hidden)', { hasText: /eigenvalue/i }).first();
+    // Hovering twice (move away in between) guards against the first hover arriving before the server was ready.
+    await expect
+      .poll(
+        async () => {
+          await page.mouse.move(0, 0);
+          await name.hover();
+          return hover.isVisible();
+        },
+        { timeout: 60_000, interval: 1000 },
+      )
+      .toBe(true);
+    const text = await hover.innerText();
+    // A = [0, 1; 0, −b/J] is upper triangular: eigenvalues 0 and −b/J = −0.004/0.012 = −1/3 (by hand).
+    expect(text).toMatch(new RegExp(`${minus}0\\.333`));
+    expect(text).toMatch(/(^|[^\d.])0([^\d.]|$)/m);
+    await editor.screenshot('hover');
+  });
+
+  it('shows the feedback gains in a code lens above the controller', async () => {
+    await editor.openFile('hoist.plant');
+    const lens = editor.page.locator('.editor-instance .codelens-decoration', { hasText: /K\s*=/ }).first();
+    await lens.waitFor({ timeout: 60_000 });
+    const text = await lens.innerText();
+    // Closed loop of the hoist with u = −[k1 k2]x: s² + (b/J + (kt/J)·k2)s + (kt/J)·k1 (by hand).
+    // Poles −4 ± 3j ask for s² + 8s + 25, so with kt/J = 20/3: k1 = 25·3/20 = 3.75, k2 = (8 − 1/3)·3/20 = 1.15.
+    expect(text).toMatch(/3\.75/);
+    expect(text).toMatch(/1\.15/);
+  });
+
+  it('adds integral action through the quick fix and the fragility warning goes away', async () => {
+    await editor.openFile('dosing-tank.plant');
+    const page = editor.page;
+    await page.locator('.editor-instance .squiggly-warning').first().waitFor({ timeout: 60_000 });
+    await page.keyboard.press('Control+Shift+M');
+    const rows = page.locator('.markers-panel .monaco-list-row', { hasText: /./ });
+    await rows.first().waitFor();
+    // Try each problem of this file until one offers the integral-action fix.
+    let appliedFor: string | null = null;
+    const count = await rows.count();
+    for (let index = 0; index < count && appliedFor === null; index++) {
+      const row = rows.nth(index);
+      const message = (await row.innerText()).trim();
+      if (!/dosing-tank|level|prescal|track|integral|exact|settle/i.test(message)) continue;
+      await row.click();
+      await page.keyboard.press('Escape');
+      await page.locator('.editor-instance .monaco-editor.focused').first().waitFor();
+      await page.keyboard.press('Control+.');
+      const menu = page.locator('.action-widget');
+      await menu.waitFor({ state: 'visible' });
+      const fix = menu.locator('.action-widget-action-list .monaco-list-row', { hasText: /integral/i }).first();
+      if (await fix.count()) {
+        await fix.click();
+        appliedFor = message.split('\n')[0];
+      } else {
+        await page.keyboard.press('Escape');
+      }
+    }
+    expect(appliedFor, 'a problem in dosing-tank.plant offers the integral-action quick fix').not.toBeNull();
+    await editor.line('integral level_sensor').waitFor();
+    // The warning the fix was applied for is gone once the server re-analysed the edited text.
+    await expect
+      .poll(async () => (await rows.allInnerTexts()).map((t) => t.split('\n')[0]).includes(appliedFor!), { timeout: 60_000 })
+      .toBe(false);
+    await editor.screenshot('quick-fix');
+  });
+
+  it('draws the step response and pole map in the response panel', async () => {
+    await editor.openFile('hoist.plant');
+    await editor.runCommand('Loopwright: Show Response Panel');
+    const frame = editor.webview();
+    await frame.locator('#plots[data-rendered="true"]').waitFor({ timeout: 60_000 });
+    expect(await frame.locator('.lw-plot-outputs canvas').count()).toBeGreaterThan(0);
+    expect(await frame.locator('.lw-plot-inputs canvas').count()).toBeGreaterThan(0);
+    // Two closed-loop poles (−4 ± 3j) as crosses on the pole map.
+    expect(await frame.locator('svg.lw-pole-map .lw-cross').count()).toBe(2);
+    expect(await frame.locator('.lw-plot-outputs .u-legend').innerText()).toMatch(/height/);
+    await editor.screenshot('response-panel');
+  });
+});
