@@ -19,6 +19,16 @@ describe('solveSylvester (Bartels–Stewart)', () => {
     }
   });
 
+  it('agrees with scipy.linalg.solve_sylvester (fixture)', () => {
+    for (const c of fixture.sylvester) {
+      const { X, ok } = solveSylvester(c.A, c.B, c.C);
+      expect(ok).toBe(true);
+      const n = c.A.length + c.B.length;
+      // Spectra shifted apart by 2.5 in the generator keep sep(A, −B) moderate; c = 100.
+      expect(maxAbsDiff(X, c.X)).toBeLessThan(100 * n * EPS * (frob(c.A) + frob(c.B)) * frob(c.X));
+    }
+  });
+
   it('reports a singular operator when λ(A) + λ(B) = 0', () => {
     // λ(A) = {1, 2}, λ(B) = {−2, 5}: 2 + (−2) = 0.
     const { ok } = solveSylvester([[1, 4], [0, 2]], [[-2, 1], [0, 5]], [[1, 0], [0, 1]]);

@@ -141,6 +141,15 @@ for n, m in ((2, 1), (3, 1), (4, 2), (5, 2), (6, 3)):
     pencils.append({'kind': 'rosenbrock', 'A': rows(big_a), 'B': rows(big_e), 'infiniteCount': n + m - len(finite),
                     'finite': [[z.real, z.imag] for z in finite]})
 
+# Sylvester equations A·X + X·B = C (scipy.linalg.solve_sylvester, Bartels–Stewart in LAPACK
+# dtrsyl), rectangular, with spectra of A and −B kept apart.
+sylvester = []
+for n, m in ((1, 1), (2, 3), (4, 4), (6, 2), (9, 7)):
+    a = rng.standard_normal((n, n)) + 2.5 * np.eye(n)
+    b = rng.standard_normal((m, m)) + 2.5 * np.eye(m)
+    c = rng.standard_normal((n, m))
+    sylvester.append({'A': rows(a), 'B': rows(b), 'C': rows(c), 'X': rows(sla.solve_sylvester(a, b, c))})
+
 out = {
     'generator': 'test/reference/numeric_solvers.py',
     'scipy': scipy.__version__, 'numpy': np.__version__,
@@ -148,6 +157,7 @@ out = {
             'solve_discrete_lyapunov on seeded random stabilisable systems; Q, R positive definite.',
     'cases': cases,
     'pencils': pencils,
+    'sylvester': sylvester,
 }
 path = os.path.join(os.path.dirname(__file__), '..', 'fixtures', 'reference', 'numeric_solvers.json')
 with open(path, 'w') as f:
