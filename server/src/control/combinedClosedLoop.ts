@@ -8,7 +8,7 @@
 // The controller alone, from y to u, is also returned (u = Cc xc + Dc y): margins.ts breaks the
 // loop at the plant input with it.
 import type { Complex, Rows } from '../numeric/types';
-import { solveLinear } from '../numeric/lu';
+import { solveLinear } from '../numeric';
 import { eigenvaluesOf } from './controlLinearAlgebra';
 
 export interface StateSpace {

@@ -11,7 +11,7 @@
 //    gives W = e^{FT}ᵀ G. (The 2(n+m) block form; the last m rows of F are zero.)
 //    A discrete LQR with (Qd, Rd, Nd) minimises the continuous cost of the sampled loop, so its
 //    gain approaches the continuous LQR gain as T → 0 and changes little with T.
-import { matrixExponential, matrixExponentialIntegral } from '../numeric/expm';
+import { matrixExponential, matrixExponentialIntegral } from '../numeric';
 import type { Complex, Rows } from '../numeric/types';
 
 export interface ZeroOrderHold {

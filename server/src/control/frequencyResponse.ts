@@ -3,7 +3,7 @@
 // frequency (numeric solveComplexLinear). Phase is unwrapped along the grid (jumps > 180°
 // removed by ±360°), magnitude in dB.
 import type { Complex, ComplexRows, Rows } from '../numeric/types';
-import { solveComplexLinear } from '../numeric/lu';
+import { solveComplexLinear } from '../numeric';
 
 export interface FrequencyChannel {
   output: number;

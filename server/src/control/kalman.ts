@@ -10,7 +10,7 @@
 //   The dual of "stabilisable" is "(A, C) detectable"; the dual of "detectable on the boundary" is
 //   "every boundary mode excited by the process noise".
 import type { Complex, Rows } from '../numeric/types';
-import { solveLinear } from '../numeric/lu';
+import { solveLinear } from '../numeric';
 import { eigenvaluesOf } from './controlLinearAlgebra';
 import { designLqr } from './lqr';
 import { checkPositiveSemidefinite } from './weightChecks';

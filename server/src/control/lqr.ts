@@ -12,13 +12,11 @@
 // has gain margin [½, ∞) and phase margin ≥ 60° (Safonov & Athans 1977, from the return
 // difference inequality). Nowhere else (discrete, cross weights, observers) do they hold; there
 // the engine computes the actual margins (margins.ts).
-import { solveContinuousRiccati } from '../numeric/riccatiContinuous';
-import { solveDiscreteRiccati } from '../numeric/riccatiDiscrete';
+import { solveContinuousRiccati, solveDiscreteRiccati, solveLinear } from '../numeric';
 import type { Complex, Rows } from '../numeric/types';
 import { eigenvaluesOf } from './controlLinearAlgebra';
 import { analyzeControllability, analyzeObservability, classifyEigenvalue, eigenvalueTolerance } from './structure';
 import { checkPositiveDefinite, checkPositiveSemidefinite } from './weightChecks';
-import { solveLinear } from '../numeric/lu';
 
 export type LqrFailure =
   | 'dimension-mismatch'

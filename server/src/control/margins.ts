@@ -21,7 +21,7 @@
 // is refined by bisection on log ω (at most 60 steps), the sensitivity peak by golden-section
 // search (at most 60 steps).
 import type { Complex, ComplexRows, Rows } from '../numeric/types';
-import { solveComplexLinear, solveLinear } from '../numeric/lu';
+import { solveComplexLinear, solveLinear } from '../numeric';
 import { eigenvaluesOf } from './controlLinearAlgebra';
 import type { StateSpace } from './combinedClosedLoop';
 import { evaluateTransfer, frequencyPoint, logarithmicGrid } from './frequencyResponse';

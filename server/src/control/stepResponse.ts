@@ -26,8 +26,7 @@
 // downsampled to at most `maxReturnedPoints` (default 500); metrics use the full grid.
 import type { Complex, Rows } from '../numeric/types';
 import type { NonlinearModel } from '../model/types';
-import { matrixExponentialIntegral } from '../numeric/expm';
-import { solveLinear } from '../numeric/lu';
+import { matrixExponentialIntegral, solveLinear } from '../numeric';
 import { eigenvaluesOf } from './controlLinearAlgebra';
 import { computeStepMetrics, type InputLimit, type StepMetrics } from './stepMetrics';
 
