@@ -27,8 +27,9 @@ describe('docs/language.md', () => {
     for (const name of [...unitNames, ...builtinFunctions]) expect(reference).toContain(name);
   });
 
-  it('is right that `2 s^2` reads as (2 s)^2 in a transfer function', () => {
+  it("is right that `2 s^2` reads as (2 s)^2 in a transfer function (and warns)", () => {
     const doc = check('plant a {\n  transfer = 1 / (2 s^2 + 1)\n}\nplant b {\n  transfer = 1 / (4*s^2 + 1)\n}\n');
     expect(doc.plants[0]!.A).toEqual(doc.plants[1]!.A);
+    expect(doc.diagnostics.filter((d) => d.code === 'model/ambiguous-power').map((d) => d.range.start.line)).toEqual([1]);
   });
 });

@@ -39,6 +39,7 @@ import { aroundDefaultInput } from './around-default-input';
 import { aroundIgnored } from './around-ignored';
 import { improperTransfer } from './improper-transfer';
 import { notRational } from './not-rational';
+import { ambiguousPower } from './ambiguous-power';
 import { transferSignals } from './transfer-signals';
 import { staticTransfer } from './static-transfer';
 import { noDesign } from './no-design';
@@ -95,6 +96,7 @@ export {
   aroundIgnored,
   improperTransfer,
   notRational,
+  ambiguousPower,
   transferSignals,
   staticTransfer,
   noDesign,
@@ -151,6 +153,7 @@ export const modelDiagnosticKinds = [
   aroundIgnored,
   improperTransfer,
   notRational,
+  ambiguousPower,
   transferSignals,
   staticTransfer,
   noDesign,
