@@ -148,3 +148,30 @@ describe('multi-input robust eigenstructure assignment', () => {
     600_000,
   );
 });
+
+import fixture from '../fixtures/reference/control_placement.json';
+import { analyzeControllability } from '../../server/src/control/structure';
+
+describe('SciPy reference (test/reference/control_placement.py)', () => {
+  it('place_poles: achieved poles agree (several inputs: poles, not gains; one input: the unique gain too)', () => {
+    for (const c of fixture.placement) {
+      const poles = c.poles.map(([re, im]: number[]) => ({ re, im }));
+      const result = placePoles(c.A, c.B, poles, defaultSettings);
+      expect(result.ok).toBe(true);
+      // Tolerance c·n·ε·κ with κ our own reported condition and c = 1e4 (eigenvalue sensitivity
+      // also scales with ‖B‖‖K‖/|λ|, up to ~1e2 here).
+      const tolerance = 1e4 * c.A.length * Number.EPSILON * Math.max(result.eigenvectorCondition, c.eigenvectorCondition);
+      expect(result.maxRelativePoleError).toBeLessThan(tolerance);
+      if (c.B[0].length === 1) {
+        const scale = Math.max(...c.gain[0].map(Math.abs));
+        c.gain[0].forEach((v: number, j: number) => expect(Math.abs(result.K[0][j] - v)).toBeLessThan(tolerance * scale));
+      }
+    }
+  });
+
+  it('controllable subspace dimension matches the numerical rank of the controllability matrix', () => {
+    for (const c of fixture.structure) {
+      expect(analyzeControllability(c.A, c.B, 'continuous', { computeMargin: false }).controllableDimension).toBe(c.controllableDimension);
+    }
+  });
+});

@@ -1,0 +1,138 @@
+import { describe, expect, it } from 'vitest';
+import { setpointGains } from '../../server/src/control/setpoint';
+import { placePoles } from '../../server/src/control/placement';
+import { analyzeModes } from '../../server/src/control/modes';
+import { defaultSettings } from '../../server/src/control/settings';
+import { seededRandom } from '../../server/src/control/placementRobust';
+import fixture from '../fixtures/reference/control_placement.json';
+
+const real = (...values: number[]) => values.map((re) => ({ re, im: 0 }));
+
+// A cart (position, velocity) driven by force: ẋ₁ = x₂, ẋ₂ = −0.5·x₂ + u.
+const cartA = [[0, 1], [0, -0.5]];
+const cartB = [[0], [1]];
+
+describe('set-point gains', () => {
+  it('position output: unique prescaler, equals 1/G_dc, and the closed-loop DC gain times N is 1', () => {
+    const K = placePoles(cartA, cartB, real(-2, -3), defaultSettings).K;
+    const result = setpointGains(cartA, cartB, [[1, 0]], [[0]], [0], K, 'continuous');
+    expect(result.feasibility).toBe('unique');
+    expect(result.dcGainDefined).toBe(true);
+    // Hand computation: (s+2)(s+3) = s² + 5s + 6 → K = [6, 4.5]; G_dc = 1/6 → N = 6.
+    expect(result.prescaler![0][0]).toBeCloseTo(6, 10);
+    expect(result.prescalerFromDcGain![0][0]).toBeCloseTo(result.prescaler![0][0], 10);
+    expect(result.closedLoopDcGain![0][0] * result.prescaler![0][0]).toBeCloseTo(1, 12);
+    expect(result.illConditioned).toBe(false);
+  });
+
+  it('velocity measured by a differentiating sensor: invariant zero at s = 0 → zero-at-dc by rank, also perturbed', () => {
+    // Output y = velocity = derivative of position: with force input the steady state of the
+    // velocity is fixed by the damping, but set-point on position rate with an integrator plant
+    // ẋ₁ = x₂, ẋ₂ = u, y = x₂ … is feasible; the zero sits in a plant whose output is ẋ of an
+    // integrating state: ẋ₁ = u, y = ẋ₁ − … Use the classical form G(s) = s/(s + 1): A = −1,
+    // B = 1, C = −1, D = 1 (G = D + C(s − A)⁻¹B = 1 − 1/(s + 1) = s/(s + 1), hand algebra).
+    const K = [[2]];
+    const exact = setpointGains([[-1]], [[1]], [[-1]], [[1]], [0], K, 'continuous');
+    expect(exact.feasibility).toBe('zero-at-dc');
+    expect(exact.prescaler).toBeNull();
+    expect(exact.singularCombination).toEqual([1]);
+    // Perturb by a few ulps: the rank decision (with its scaled tolerance) is unchanged.
+    const tiny = 4 * Number.EPSILON;
+    const perturbed = setpointGains([[-1 + tiny]], [[1]], [[-1]], [[1 + tiny]], [0], K, 'continuous');
+    expect(perturbed.feasibility).toBe('zero-at-dc');
+  });
+
+  it('two outputs, two inputs: one invariant zero at 0 in a combination; singularCombination names it', () => {
+    // Two decoupled first-order lags and a third output … here y₁ = x₁ + x₂, y₂ = 2x₁ + 2x₂ + … make
+    // outputs y₁ = x₁, y₂ = x₁ (same signal): combination y₁ − y₂ ≡ 0 can never equal (1, 0).
+    const A = [[-1, 0], [0, -2]];
+    const B = [[1, 0], [0, 1]];
+    const C = [[1, 0], [1, 0]];
+    const D = [[0, 0], [0, 0]];
+    const result = setpointGains(A, B, C, D, [0, 1], [[0, 0], [0, 0]], 'continuous');
+    expect(result.feasibility).toBe('zero-at-dc');
+    const w = result.singularCombination!;
+    expect(Math.abs(w[0] + w[1])).toBeLessThan(1e-12);
+    expect(Math.abs(Math.abs(w[0]) - Math.SQRT1_2)).toBeLessThan(1e-12);
+  });
+
+  it('minimum-norm with more inputs than tracked outputs; infeasible with more outputs', () => {
+    const A = [[-1, 0], [0, -2]];
+    const B = [[1, 0], [0, 1]];
+    const C = [[1, 1], [1, -1], [0, 1]];
+    const D = [[0, 0], [0, 0], [0, 0]];
+    const K = [[0, 0], [0, 0]];
+    const one = setpointGains(A, B, C, D, [0], K, 'continuous');
+    expect(one.feasibility).toBe('minimum-norm');
+    // Identity: the steady state reaches the set-point, C_t·Nx + D_t·Nu = 1, A·Nx + B·Nu = 0.
+    expect(one.Nx![0][0] + one.Nx![1][0]).toBeCloseTo(1, 12);
+    expect(setpointGains(A, B, C, D, [0, 1, 2], K, 'continuous').feasibility).toBe('infeasible');
+  });
+
+  it('an uncontrollable integrator left in the loop: DC gain undefined (not zero)', () => {
+    const A = [[0, 0], [0, -1]];
+    const B = [[0], [1]];
+    const result = setpointGains(A, B, [[0, 1]], [[0]], [0], [[0, 1]], 'continuous');
+    expect(result.dcGainDefined).toBe(false);
+    expect(result.closedLoopDcGain).toBeNull();
+  });
+
+  it('discrete domain uses z = 1: a discrete accumulator plant x[k+1] = x[k] + u, y = x', () => {
+    const result = setpointGains([[1]], [[1]], [[1]], [[0]], [0], [[0.5]], 'discrete');
+    expect(result.feasibility).toBe('unique');
+    // Closed loop x⁺ = 0.5x + N r → DC gain N/(0.5) → N = 0.5 (hand computation).
+    expect(result.prescaler![0][0]).toBeCloseTo(0.5, 12);
+  });
+
+  it('nearly-singular DC: huge prescaler is reported ill-conditioned', () => {
+    // G(s) = (s + δ)/(s + 1)² with δ = 1e-9: feasible but the DC gain is δ.
+    const delta = 1e-9;
+    const A = [[0, 1], [-1, -2]];
+    const B = [[0], [1]];
+    const C = [[delta, 1]];
+    const result = setpointGains(A, B, C, [[0]], [0], [[0, 0]], 'continuous');
+    expect(result.feasibility).toBe('unique');
+    expect(result.illConditioned).toBe(true);
+    // Computed to ~ε/δ relative accuracy only, which is what ill-conditioned means here.
+    expect(Math.abs(result.prescaler![0][0] * delta - 1)).toBeLessThan(1e-6);
+  });
+
+  it('SciPy fixture: DC gains of random stable closed loops match a direct solve', () => {
+    for (const c of fixture.dcGain) {
+      const result = setpointGains(c.A, c.B, c.C, c.D, c.C.map((_: number[], i: number) => i), c.K, 'continuous');
+      c.dcGain.forEach((row: number[], i: number) =>
+        row.forEach((v: number, j: number) => expect(Math.abs(result.closedLoopDcGain![i][j] - v)).toBeLessThan(1e-10 * Math.max(1, Math.abs(v)) * c.condition)),
+      );
+    }
+  });
+});
+
+describe('modes', () => {
+  it('damping, natural frequency, time constant of s = −1 ± 2j and an integrator', () => {
+    const result = analyzeModes([[-1, 2, 0], [-2, -1, 0], [0, 0, 0]], 'continuous');
+    expect(result.stability).toBe('marginal');
+    const pair = result.modes.find((m) => m.value.im > 0)!;
+    expect(pair.naturalFrequency).toBeCloseTo(Math.sqrt(5), 12);
+    expect(pair.dampingRatio).toBeCloseTo(1 / Math.sqrt(5), 12);
+    expect(pair.timeConstant).toBeCloseTo(1, 12);
+    const integrator = result.modes.find((m) => m.value.im === 0)!;
+    expect(integrator.timeConstant).toBeNull();
+    expect(integrator.stability).toBe('marginal');
+  });
+
+  it('an eigenvalue computed as 1e-17 is marginal; a perturbed double integrator is marginal, not unstable', () => {
+    expect(analyzeModes([[-1, 0], [0, 1e-17]], 'continuous').stability).toBe('marginal');
+    const random = seededRandom(3);
+    const A = [[0, 1], [0, 0]].map((row) => row.map((v) => v + random() * 1e-16));
+    expect(analyzeModes(A, 'continuous').stability).toBe('marginal');
+    expect(analyzeModes([[0.1]], 'continuous').stability).toBe('unstable');
+  });
+
+  it('discrete: |z| vs 1 and s = log(z)/T', () => {
+    const result = analyzeModes([[0.5, 0], [0, 1]], 'discrete', 0.1);
+    expect(result.stability).toBe('marginal');
+    const fast = result.modes.find((m) => m.value.re === 0.5)!;
+    expect(fast.timeConstant).toBeCloseTo(0.1 / Math.log(2), 12);
+    expect(analyzeModes([[0]], 'discrete').modes[0].timeConstant).toBe(0);
+  });
+});
