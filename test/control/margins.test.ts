@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { loopMargins, outputFeedbackLoop, stateFeedbackLoop } from '../../server/src/control/margins';
 import { bandwidth, frequencyResponse, logarithmicGrid } from '../../server/src/control/frequencyResponse';
+import { poleSetDistance } from './controlTestHelpers';
 
 // L(s) = 1/(s(s+1)) realised as K(sI − A)⁻¹B with A = [[0, 1], [0, −1]], B = [0; 1], K = [1 0].
 const integratorLag = stateFeedbackLoop([[0, 1], [0, -1]], [[0], [1]], [[1, 0]]);
@@ -103,5 +104,24 @@ describe('frequency response', () => {
   it('finds the −3 dB bandwidth of 1/(s+1) at 1 rad/s', () => {
     const omegas = logarithmicGrid(0.01, 100, 20);
     expect(bandwidth([[-1]], [[1]], [[1]], [[0]], omegas, 'continuous') as number).toBeCloseTo(1, 8);
+  });
+});
+
+describe('margins with an observer in the loop', () => {
+  it('closes the output-feedback loop at the poles of the composite plant + observer (separation)', async () => {
+    const { combinedClosedLoop } = await import('../../server/src/control/combinedClosedLoop');
+    const { eigenvaluesOf } = await import('../../server/src/control/controlLinearAlgebra');
+    const plant = { A: [[0, 1], [3, -0.5]], B: [[0], [2]], C: [[1, 0]], D: [[0]] };
+    const K = [[6, 2]];
+    const L = [[20], [150]];
+    const loop = combinedClosedLoop(plant.A, plant.B, plant.C, plant.D, K, L, 'continuous');
+    const open = outputFeedbackLoop(plant, loop.controller);
+    // Closed by v = −L v: A_L − B_L C_L (D_L = 0 here).
+    const closed = open.A.map((row, i) => row.map((v, j) => v - open.B[i].reduce((sum, b, k) => sum + b * open.C[k][j], 0)));
+    const expected = [...loop.controllerPoles, ...loop.observerPoles];
+    expect(poleSetDistance(eigenvaluesOf(closed), expected)).toBeLessThan(1e-9 * 150);
+    const margins = loopMargins(open, 'continuous');
+    expect(margins.closedLoopStable).toBe(true);
+    expect(margins.perInput[0].phaseMarginDeg).not.toBeNull();
   });
 });
