@@ -375,6 +375,7 @@ class PlantParser extends EmbeddedActionsParser {
     const rows: MatrixRow[] = [];
     let entries: Expr[] = [];
     let lastComma: IToken | undefined;
+    let afterStray = false;
     const recording = this.RECORDING_PHASE;
     const endRow = (): void => {
       if (lastComma) {
@@ -383,6 +384,7 @@ class PlantParser extends EmbeddedActionsParser {
         entries.push({ kind: 'error', ...this.span(at, at) });
         lastComma = undefined;
       }
+      afterStray = false;
       if (entries.length === 0) return;
       const first = entries[0];
       const last = entries[entries.length - 1];
@@ -394,12 +396,13 @@ class PlantParser extends EmbeddedActionsParser {
       entries = [];
     };
     const addEntry = (entry: Expr): void => {
-      if (entries.length > 0 && !lastComma) {
+      if (entries.length > 0 && !lastComma && !afterStray) {
         const start = this.outerStart(entry);
         this.report('syntax/missing-token', 'expected `,` between matrix entries', start, this.outerEnd(entry));
       }
       entries.push(entry);
       lastComma = undefined;
+      afterStray = false;
     };
     // One alternatives array per matrix (not per entry): large matrices allocate far less.
     const alternatives = [
@@ -424,12 +427,33 @@ class PlantParser extends EmbeddedActionsParser {
             entries.push({ kind: 'error', ...this.tokenSpan(comma) });
           }
           lastComma = comma;
+          afterStray = false;
         },
       },
       {
         ALT: () => {
           const entry = this.SUBRULE(this.expression);
           if (!recording) addEntry(entry);
+        },
+      },
+      {
+        // A token that cannot appear in a matrix (`[1, step]`, `[1 = 2]`): report it, skip it,
+        // and keep reading the matrix so its `]` still closes it.
+        ALT: () => {
+          const stray = this.OR2(this.strayMatrixTokenAlternatives);
+          if (recording) return;
+          this.report(
+            'syntax/unexpected-token',
+            `unexpected ${describeToken(stray)} in a matrix`,
+            stray.startOffset,
+            tokenEnd(stray),
+          );
+          if (entries.length === 0 || lastComma) {
+            // It stands where an entry belongs: keep the entry count right with an ErrorExpr.
+            entries.push({ kind: 'error', ...this.tokenSpan(stray) });
+            lastComma = undefined;
+          }
+          afterStray = true;
         },
       },
     ];
@@ -450,6 +474,20 @@ class PlantParser extends EmbeddedActionsParser {
       return { kind: 'matrix', rows, ...this.span(open.startOffset, end) };
     });
   });
+
+  /** Tokens that can neither start a matrix entry nor separate entries. */
+  strayMatrixTokenAlternatives = [
+    ...T.KEYWORDS.map((word) => T.keywordTokens[word]),
+    T.RParen,
+    T.Equals,
+    T.LessEqual,
+    T.Less,
+    T.Prime,
+    T.Percent,
+    T.Caret,
+    T.Star,
+    T.Slash,
+  ].map((tokenType) => ({ ALT: () => this.CONSUME(tokenType) }));
 
   numberTokenAlternatives = [
     { ALT: () => this.CONSUME(T.NumberLiteral) },
