@@ -5,7 +5,12 @@
 //   add-observer-poles       data.poles (text or list)
 //   poles-from-spec          data.poles (text or list)
 //   resize-matrix            data.expectedRows, data.expectedCols
-//   hold-with-input          data.inputs (values, one per input)
+//   hold-with-input          data.inputs (values, one per input; else the model's holding input)
+//   rename                   data.replacement (a known name close to the unknown one)
+//   add-conjugate            data.conjugate (complex)
+//   add-design               (none: LQR with identity weights, which needs only the sizes)
+//   add-operating-point      (none: every state and input at 0)
+//   add-operating-point-values data.names (states missing from `around`, set to 0)
 // Any diagnostic may also carry ready edits: data.edits = [{range, newText}] with data.title.
 import type { ControllerDecl, DocumentNode, MatrixExpr, PlantDecl, Range } from '../../../grammar/src/ast';
 import type { Complex, Diagnostic } from '../model/types';
@@ -32,6 +37,11 @@ const builders: Record<string, FixBuilder> = {
   'poles-from-spec': polesFromSpec,
   'resize-matrix': resizeMatrix,
   'hold-with-input': holdWithInput,
+  rename: replaceWithSuggestion,
+  'add-conjugate': (view, diagnostic, data) => completeConjugatePair(view, diagnostic, { ...data, missing: data.missing ?? data.conjugate }),
+  'add-design': addDesign,
+  'add-operating-point': addOperatingPoint,
+  'add-operating-point-values': addOperatingPointValues,
 };
 
 export function codeActions(view: AnalysisView, range: Range, diagnostics: Diagnostic[]): CodeFix[] {
@@ -228,13 +238,62 @@ export function renderMatrix(cells: string[][], column: number, eol: string, mul
   return '[' + rowTexts.join(`;${eol}${' '.repeat(column + 1)}`) + ']';
 }
 
-function holdWithInput(view: AnalysisView, diagnostic: Diagnostic, data: Record<string, unknown>) {
-  if (!Array.isArray(data.inputs)) return null;
-  const values = data.inputs.map((value) => valueText(value));
-  if (values.some((value) => value === null)) return null;
+/** The plant a diagnostic concerns: the block it is in, or the plant a controller names. */
+function plantConcerned(view: AnalysisView, range: Range): PlantDecl | undefined {
+  const declaration = declarationContaining(view.parse.document, range);
+  if (!declaration) return undefined;
+  if (declaration.kind === 'plant') return declaration;
+  const plantName = declaration.plant?.name;
+  return view.parse.document.declarations.find((d): d is PlantDecl => d.kind === 'plant' && d.name.name === plantName);
+}
+
+function signalNames(plant: PlantDecl, role: 'states' | 'inputs' | 'outputs' | 'disturbances'): string[] {
+  return plant.items.flatMap((item) => (item.kind === 'signals' && item.role === role ? item.names.map((n) => n.name) : []));
+}
+
+function replaceWithSuggestion(_view: AnalysisView, diagnostic: Diagnostic, data: Record<string, unknown>) {
+  if (typeof data.replacement !== 'string' || !data.replacement) return null;
+  return { title: `Change to \`${data.replacement}\``, edits: [{ range: diagnostic.range, newText: data.replacement }] };
+}
+
+function addDesign(view: AnalysisView, diagnostic: Diagnostic) {
   const declaration = declarationContaining(view.parse.document, diagnostic.range);
-  if (!declaration || declaration.kind !== 'plant') return null;
-  const inputNames = declaration.items.flatMap((item) => (item.kind === 'signals' && item.role === 'inputs' ? item.names.map((n) => n.name) : []));
+  if (!declaration || declaration.kind !== 'controller') return null;
+  const plant = view.model.plants.find((p) => p.name === declaration.plant?.name);
+  if (!plant || plant.states.length === 0 || plant.inputs.length === 0) return null;
+  const weight = (n: number) => (n === 1 ? '1' : `identity(${n})`);
+  const statement = `lqr Q = ${weight(plant.states.length)}, R = ${weight(plant.inputs.length)}`;
+  return { title: `Add \`${statement}\` (a starting point to tune)`, edits: [appendToBlock(view, declaration, statement)] };
+}
+
+function addOperatingPoint(view: AnalysisView, diagnostic: Diagnostic) {
+  const plant = plantConcerned(view, diagnostic.range);
+  if (!plant) return null;
+  const names = [...signalNames(plant, 'states'), ...signalNames(plant, 'inputs')];
+  if (names.length === 0) return null;
+  const statement = `around ${names.map((name) => `${name} = 0`).join(', ')}`;
+  return { title: `Add \`${statement}\``, edits: [appendToBlock(view, plant, statement)] };
+}
+
+function addOperatingPointValues(view: AnalysisView, diagnostic: Diagnostic, data: Record<string, unknown>) {
+  const plant = plantConcerned(view, diagnostic.range);
+  const names = Array.isArray(data.names) ? data.names.filter((name): name is string => typeof name === 'string') : [];
+  const around = plant?.items.find((item) => item.kind === 'around');
+  if (!plant || names.length === 0 || !around || around.kind !== 'around') return null;
+  const text = names.map((name) => `${name} = 0`).join(', ');
+  const end = around.range.end;
+  return { title: `Add ${text} to the operating point`, edits: [{ range: { start: end, end }, newText: `${around.assignments.length ? ', ' : ' '}${text}` }] };
+}
+
+function holdWithInput(view: AnalysisView, diagnostic: Diagnostic, data: Record<string, unknown>) {
+  const declaration = plantConcerned(view, diagnostic.range);
+  if (!declaration) return null;
+  const checked = view.model.plants.find((p) => p.name === declaration.name.name);
+  const raw = Array.isArray(data.inputs) ? data.inputs : checked?.operatingPoint?.holdingInput;
+  if (!Array.isArray(raw)) return null;
+  const values = raw.map((value) => valueText(value));
+  if (values.some((value) => value === null)) return null;
+  const inputNames = signalNames(declaration, 'inputs');
   if (inputNames.length !== values.length) return null;
   const around = declaration.items.find((item) => item.kind === 'around');
   const edits: TextEdit[] = [];

@@ -1,0 +1,241 @@
+// The bundled server over stdio, driven by a real JSON-RPC client: sync, diagnostics,
+// hover, lenses, quick fixes, rename, formatting, completion, outline.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { analyze } from '../../server/src/analyze';
+import { toLspDiagnostic } from '../../server/src/lsp/convert';
+import { codeLenses } from '../../server/src/ide/codeLens';
+import { formatText } from '../../server/src/ide/format';
+import { applyLspEdits, ensureBuilt, LspSession, withCursor } from './lspClient';
+
+const HOIST = `# hoist scenario
+plant hoist {
+  param J  = 0.012      # inertia, kg m^2
+  param b  = 0.004
+  param kt = 0.08
+  param r  = 0.05
+
+  states  theta, omega
+  inputs  current
+  outputs height
+
+  A = [0, 1;
+       0, -b/J]
+  B = [0; kt/J]
+  C = [r, 0]
+}
+
+controller lift for hoist {
+  poles = [-4 + 3j, -4 - 3j]
+  track height
+  step height to 0.2
+}
+`;
+
+let session: LspSession;
+let documentCount = 0;
+const nextUri = () => `file:///protocol/model${++documentCount}.plant`;
+
+/** Opens a document and waits for its slow analysis. */
+async function openAnalysed(text: string): Promise<string> {
+  const uri = nextUri();
+  await session.open(uri, text);
+  await session.waitForAnalysis(uri, 1);
+  return uri;
+}
+
+function expectedDiagnostics(text: string, uri: string) {
+  return analyze(text).diagnostics.map((diagnostic) => toLspDiagnostic(diagnostic, uri));
+}
+
+beforeAll(async () => {
+  ensureBuilt();
+  session = await LspSession.start({ settings: { debounceMs: 0 } });
+});
+
+afterAll(async () => {
+  await session?.stop();
+});
+
+describe('language server over stdio', () => {
+  it('declares its capabilities statically, with incremental sync', () => {
+    const result = session.initializeResult as { capabilities: Record<string, unknown>; serverInfo: { name: string } };
+    expect(result.serverInfo.name).toBe('loopwright');
+    expect(result.capabilities.textDocumentSync).toMatchObject({ openClose: true, change: 2 });
+    for (const capability of [
+      'hoverProvider',
+      'completionProvider',
+      'definitionProvider',
+      'referencesProvider',
+      'documentSymbolProvider',
+      'codeActionProvider',
+      'codeLensProvider',
+      'documentFormattingProvider',
+      'renameProvider',
+      'foldingRangeProvider',
+      'semanticTokensProvider',
+      'inlayHintProvider',
+      'signatureHelpProvider',
+    ]) {
+      expect(result.capabilities[capability], capability).toBeTruthy();
+    }
+  });
+
+  it('publishes the fast checks, then the full analysis, stamped with the version', async () => {
+    const uri = nextUri();
+    await session.open(uri, HOIST);
+    const first = await session.waitForDiagnostics((p) => p.uri === uri);
+    expect(first.version).toBe(1);
+    await session.waitForAnalysis(uri, 1);
+    expect(session.lastDiagnostics(uri)!.diagnostics).toEqual(expectedDiagnostics(HOIST, uri));
+  });
+
+  it('applies incremental changes and reports an unknown name at its exact range', async () => {
+    const uri = await openAnalysed(HOIST);
+    // Replace `b/J` on line 12 by `bb/J` (an unknown name).
+    const line = HOIST.split('\n')[12];
+    const character = line.indexOf('b/J');
+    const version = await session.change(uri, [{ range: { start: { line: 12, character }, end: { line: 12, character: character + 1 } }, text: 'bb' }]);
+    await session.waitForAnalysis(uri, version);
+    const published = session.lastDiagnostics(uri)!;
+    expect(published.version).toBe(version);
+    const edited = HOIST.replace('-b/J', '-bb/J');
+    expect(published.diagnostics).toEqual(expectedDiagnostics(edited, uri));
+    const unknown = published.diagnostics.find((d) => String(d.code).includes('unknown-name'));
+    expect(unknown?.range).toEqual({ start: { line: 12, character }, end: { line: 12, character: character + 2 } });
+  });
+
+  it('answers hover on a param with its value and on a matrix with its shape', async () => {
+    const { text, position } = withCursor(HOIST.replace('param kt', 'param k|t'));
+    const uri = await openAnalysed(text);
+    const hover = await session.request<{ contents: { kind: string; value: string } }>('textDocument/hover', { textDocument: { uri }, position });
+    expect(hover.contents.kind).toBe('markdown');
+    expect(hover.contents.value).toContain('param kt');
+    expect(hover.contents.value).toContain('0.08');
+    const matrix = await session.request<{ contents: { value: string } }>('textDocument/hover', {
+      textDocument: { uri },
+      position: { line: 13, character: 2 },
+    });
+    expect(matrix.contents.value).toContain('2×1');
+  });
+
+  it('shows the code lenses the ide layer computes for each controller', async () => {
+    const uri = await openAnalysed(HOIST);
+    const lenses = await session.request<{ range: { start: { line: number } }; command: { title: string; command: string; arguments?: unknown[] } }[]>(
+      'textDocument/codeLens',
+      { textDocument: { uri } },
+    );
+    const expected = codeLenses(analyze(HOIST));
+    expect(lenses.map((lens) => lens.command.title)).toEqual(expected.map((lens) => lens.title));
+    expect(lenses.every((lens) => lens.range.start.line === 17)).toBe(true);
+    for (const lens of lenses) {
+      if (lens.command.command) expect(lens.command.arguments).toEqual([{ uri, controller: 'lift' }]);
+    }
+  });
+
+  it('offers a quick fix that, applied, clears the diagnostic', async () => {
+    // `thet` is close to the declared state `theta`: the model suggests the rename.
+    const text = HOIST.replace('track height', 'track heigth');
+    const uri = await openAnalysed(text);
+    const published = session.lastDiagnostics(uri)!;
+    const target = published.diagnostics.find((d) => (d.data as { fix?: string } | undefined)?.fix);
+    expect(target, JSON.stringify(published.diagnostics)).toBeDefined();
+    const actions = await session.request<{ title: string; edit: { changes: Record<string, { range: never; newText: string }[]> } }[]>(
+      'textDocument/codeAction',
+      { textDocument: { uri }, range: target!.range, context: { diagnostics: [target] } },
+    );
+    expect(actions.length).toBeGreaterThan(0);
+    const fixed = applyLspEdits(text, actions[0].edit.changes[uri]);
+    expect(fixed).toContain('track height');
+    const version = await session.change(uri, [{ text: fixed }]);
+    await session.waitForAnalysis(uri, version);
+    const after = session.lastDiagnostics(uri)!;
+    expect(after.diagnostics.filter((d) => d.code === target!.code)).toEqual([]);
+  });
+
+  it('renames a plant output in the plant and in the controllers that use it', async () => {
+    const { text, position } = withCursor(HOIST.replace('outputs height', 'outputs hei|ght'));
+    const uri = await openAnalysed(text);
+    const edit = await session.request<{ changes: Record<string, { range: never; newText: string }[]> }>('textDocument/rename', {
+      textDocument: { uri },
+      position,
+      newName: 'level',
+    });
+    const edits = edit.changes[uri];
+    expect(edits).toHaveLength(3); // outputs line, track, step
+    const renamed = applyLspEdits(text, edits);
+    expect(renamed).toContain('track level');
+    expect(renamed).toContain('step level to 0.2');
+    expect(analyze(renamed).diagnostics.filter((d) => d.severity === 'error')).toEqual([]);
+  });
+
+  it('refuses a rename onto a reserved word', async () => {
+    const { text, position } = withCursor(HOIST.replace('states  theta', 'states  th|eta'));
+    const uri = await openAnalysed(text);
+    await expect(session.request('textDocument/rename', { textDocument: { uri }, position, newName: 'plant' })).rejects.toThrow(/reserved/);
+  });
+
+  it('formats a document and leaves a formatted one alone', async () => {
+    const messy = `plant p {\n      states x,v\n   inputs u\n outputs x\n A = [0,1;\n 0, -2.5]\n    B = [0;1]\n C=[1,0]\n}\n\n\n\ncontroller c for p {\npoles = [-1, -2]   \n}\n`;
+    const uri = await openAnalysed(messy);
+    const edits = await session.request<{ range: never; newText: string }[]>('textDocument/formatting', {
+      textDocument: { uri },
+      options: { tabSize: 2, insertSpaces: true },
+    });
+    const formatted = applyLspEdits(messy, edits);
+    expect(formatted).toBe(
+      `plant p {\n  states x,v\n  inputs u\n  outputs x\n  A = [0,    1;\n       0, -2.5]\n  B = [0; 1]\n  C=[1, 0]\n}\n\ncontroller c for p {\n  poles = [-1, -2]\n}\n`,
+    );
+    expect(formatted).toBe(formatText(messy));
+    const version = await session.change(uri, [{ text: formatted }]);
+    await session.waitForDiagnostics((p) => p.uri === uri && p.version === version);
+    const again = await session.request<unknown[]>('textDocument/formatting', { textDocument: { uri }, options: { tabSize: 2, insertSpaces: true } });
+    expect(again).toEqual([]);
+  });
+
+  it('completes design statements and the plant outputs after track', async () => {
+    const statement = withCursor(HOIST.replace('  track height\n', '  |\n  track height\n'));
+    const uri = await openAnalysed(statement.text);
+    const items = await session.request<{ label: string }[]>('textDocument/completion', { textDocument: { uri }, position: statement.position });
+    const labels = items.map((item) => item.label);
+    expect(labels).toEqual(expect.arrayContaining(['poles', 'lqr', 'track', 'integral', 'observer', 'sample']));
+    expect(labels).not.toContain('param');
+
+    const afterTrack = withCursor(HOIST.replace('track height', 'track |'));
+    const uri2 = await openAnalysed(afterTrack.text);
+    const outputs = await session.request<{ label: string }[]>('textDocument/completion', { textDocument: { uri: uri2 }, position: afterTrack.position });
+    expect(outputs.map((item) => item.label)).toEqual(['height']);
+  });
+
+  it('gives an outline of plants and controllers', async () => {
+    const uri = await openAnalysed(HOIST);
+    const symbols = await session.request<{ name: string; kind: number; children: { name: string }[] }[]>('textDocument/documentSymbol', {
+      textDocument: { uri },
+    });
+    expect(symbols.map((s) => s.name)).toEqual(['hoist', 'lift']);
+    expect(symbols[0].children.map((c) => c.name)).toEqual(['J', 'b', 'kt', 'r', 'theta', 'omega', 'current', 'height', 'A', 'B', 'C']);
+    expect(symbols[1].children.map((c) => c.name)).toEqual(['poles', 'track', 'step']);
+  });
+
+  it('finds the definition and the references of a param', async () => {
+    const { text, position } = withCursor(HOIST.replace('-b/J', '-b/|J'));
+    const uri = await openAnalysed(text);
+    const definition = await session.request<{ range: { start: { line: number; character: number } } }>('textDocument/definition', {
+      textDocument: { uri },
+      position,
+    });
+    expect(definition.range.start).toEqual({ line: 2, character: 8 });
+    const references = await session.request<unknown[]>('textDocument/references', {
+      textDocument: { uri },
+      position,
+      context: { includeDeclaration: true },
+    });
+    expect(references).toHaveLength(3); // declaration, A, B
+  });
+
+  it('never answers with an error for requests on unknown documents', async () => {
+    const uri = 'file:///protocol/not-open.plant';
+    expect(await session.request('textDocument/hover', { textDocument: { uri }, position: { line: 0, character: 0 } })).toBeNull();
+    expect(await session.request('textDocument/codeLens', { textDocument: { uri } })).toEqual([]);
+    expect(await session.request('textDocument/semanticTokens/full', { textDocument: { uri } })).toEqual({ data: [] });
+  });
+});
