@@ -37,6 +37,16 @@ describe('matrixExponential', () => {
     expect(maxAbsDifference(computed, exact)).toBeLessThan(8 * EPS * Math.E);
   });
 
+  it('handles a large-norm non-normal matrix by scaling and squaring (triangular closed form)', () => {
+    // exp([a b; 0 d]) = [e^a, b·(e^a − e^d)/(a − d); 0, e^d] (direct from the power series).
+    const a = -1;
+    const d = -2;
+    const b = 1000;
+    const computed = matrixExponential([[a, b], [0, d]]);
+    const exact = [[Math.exp(a), (b * (Math.exp(a) - Math.exp(d))) / (a - d)], [0, Math.exp(d)]];
+    expect(maxAbsDifference(computed, exact)).toBeLessThan(100 * EPS * frobenius(exact));
+  });
+
   it('satisfies e^A·e^(−A) = I for every Padé degree and for scaling and squaring', () => {
     let seed = 7;
     const random = () => ((seed = (seed * 16807) % 2147483647) / 2147483647) * 2 - 1;

@@ -14,7 +14,7 @@ function independentResidual(A: number[][], B: number[][], Q: number[][], r: num
 describe('solveContinuousRiccati (Laub Schur method + Newton–Kleinman)', () => {
   it('CAREX #1: double integrator gives X = [2 1; 1 2], K = [1 2]', () => {
     // Benner, Laub & Mehrmann, "A collection of benchmark examples for the numerical solution of
-    // algebraic Riccati equations I: continuous-time case", TU Chemnitz SPC 95-22, 1995, example 1
+    // algebraic Riccati equations I: continuous-time case", TU Chemnitz report SPC 95-22 (number from memory), 1995, example 1
     // (values checked by substitution: the residual of the stated X is exactly zero).
     const s = solveContinuousRiccati([[0, 1], [0, 0]], [[0], [1]], [[1, 0], [0, 2]], [[1]]);
     expect(s.ok).toBe(true);

@@ -13,7 +13,7 @@ function riccatiMap(A: number[][], B: number[][], Q: number[][], r: number, X: n
 describe('solveDiscreteRiccati (structure-preserving doubling + Newton)', () => {
   it('DAREX #1: X = φ·Q with φ = (1 + √5)/2', () => {
     // Benner, Laub & Mehrmann, "A collection of benchmark examples for the numerical solution of
-    // algebraic Riccati equations II: discrete-time case", TU Chemnitz SPC 95-23, 1995, example 1
+    // algebraic Riccati equations II: discrete-time case", TU Chemnitz report SPC 95-23 (number from memory), 1995, example 1
     // (the continuous example's data in discrete time); checked by substitution (residual ≈ 1e-15).
     const Q = [[9, 6], [6, 4]];
     const s = solveDiscreteRiccati([[4, 3], [-4.5, -3.5]], [[1], [-1]], Q, [[1]]);
