@@ -125,10 +125,10 @@ export function bandwidth(A: Rows, B: Rows, C: Rows, D: Rows, omegas: number[], 
   let previous = 0;
   for (const omega of omegas) {
     if (magnitudeAt(omega) < level) {
-      let low = Math.max(previous, omega / 10);
+      let low = previous;
       let high = omega;
       for (let step = 0; step < 60 && high - low > 4 * Number.EPSILON * high; step++) {
-        const middle = Math.sqrt(low * high);
+        const middle = low > 0 ? Math.sqrt(low * high) : 0.5 * high;
         if (magnitudeAt(middle) < level) high = middle;
         else low = middle;
       }

@@ -71,7 +71,6 @@ export function stateFeedbackLoop(A: Rows, B: Rows, K: Rows): StateSpace {
 
 /** L = −Kc·P: plant (A, B, C, D) in series with the controller (Ac, Bc, Cc, Dc) from y to u. */
 export function outputFeedbackLoop(plant: StateSpace, controller: StateSpace): StateSpace {
-  const n = plant.A.length;
   const nc = controller.A.length;
   const BcC = multiply(controller.B, plant.C);
   const BcD = multiply(controller.B, plant.D);
@@ -84,7 +83,6 @@ export function outputFeedbackLoop(plant: StateSpace, controller: StateSpace): S
   const B: Rows = [...plant.B.map((row) => row.slice()), ...BcD];
   const C: Rows = DcC.map((row, i) => [...row.map((v) => -v), ...controller.C[i].map((v) => -v)]);
   const D: Rows = DcD.map((row) => row.map((v) => -v));
-  void n;
   return { A, B, C, D };
 }
 
@@ -144,7 +142,8 @@ function frequencyGrid(loop: StateSpace, closedPoles: Complex[], domain: 'contin
   const grid = logarithmicGrid(Math.min(low, high / 10), high, 60);
   for (const corner of corners) {
     if (corner.damping < 0.3) {
-      const width = Math.max(3 * corner.damping, 1e-3);
+      // ±3ζ around a lightly damped resonance, at least ±1 % for (nearly) undamped modes.
+      const width = Math.max(3 * corner.damping, 0.01);
       for (let k = -20; k <= 20; k++) {
         const omega = corner.frequency * (1 + (width * k) / 20);
         if (omega > 0 && omega <= high) grid.push(omega);
