@@ -1,0 +1,68 @@
+// Random edits through the protocol: the server never crashes, every request is answered, and
+// the last diagnostics equal a fresh analysis of the final text.
+import { existsSync, readdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { analyze } from '../../server/src/analyze';
+import { toLspDiagnostic } from '../../server/src/lsp/convert';
+import { ensureBuilt, LspSession, root } from './lspClient';
+import { soak } from './soak';
+
+const INLINE = `plant rig {
+  param m = 0.2
+  states z, w
+  inputs i
+  outputs z
+  z' = w
+  w' = 9.81 - 0.5*i^2/(m*z^2)
+  output z = z
+  around z = 0.01, w = 0, i = 0.35
+}
+
+controller hold for rig {
+  poles = [-20, -30]
+  track z
+}
+`;
+
+const sampleDirectory = join(root, 'samples');
+const samples = existsSync(sampleDirectory)
+  ? readdirSync(sampleDirectory)
+      .filter((name) => name.endsWith('.plant'))
+      .sort()
+      .map((name) => ({ name, text: readFileSync(join(sampleDirectory, name), 'utf8') }))
+  : [];
+const models = samples.length > 0 ? samples : [{ name: 'inline', text: INLINE }];
+const TOTAL_EDITS = 1000;
+
+let session: LspSession;
+
+beforeAll(async () => {
+  ensureBuilt();
+  session = await LspSession.start({ settings: { debounceMs: 10 } });
+});
+
+afterAll(async () => {
+  await session?.stop();
+});
+
+describe('random-edit soak', () => {
+  it.each(models.map((model, index) => [model.name, index] as const))(
+    'survives random edits of %s and ends with the diagnostics of a fresh analysis',
+    async (name, index) => {
+      const model = models[index];
+      const uri = `file:///soak/${name}`;
+      await session.open(uri, model.text);
+      const edits = Math.ceil(TOTAL_EDITS / models.length);
+      const outcome = await soak(session, uri, model.text, edits, 1000 + index);
+      expect(outcome.requestFailures).toEqual([]);
+      await session.waitForAnalysis(uri, outcome.finalVersion);
+      expect(session.exitCode).toBeNull();
+      const published = session.lastDiagnostics(uri)!;
+      expect(published.version).toBe(outcome.finalVersion);
+      const expected = analyze(outcome.finalText).diagnostics.map((d) => toLspDiagnostic(d, uri));
+      expect(published.diagnostics).toEqual(JSON.parse(JSON.stringify(expected)));
+      expect(session.stderr.filter((line) => /failed/.test(line))).toEqual([]);
+    },
+  );
+});
