@@ -68,6 +68,15 @@ describe('solveContinuousRiccati (Laub Schur method + Newton–Kleinman)', () =>
     expect(maxAbsDiff(mul(R, s.gain), add(mul(tr(B), s.X), tr(N)))).toBeLessThan(100 * EPS * frob(s.X) * frob(B));
   });
 
+  it('agrees with SciPy on problems with a cross term N (fixture, argument s)', () => {
+    for (const c of fixture.crossTerm) {
+      const s = solveContinuousRiccati(c.A, c.B, c.Q, c.R, c.N);
+      expect(s.ok, `n=${c.n} m=${c.m}`).toBe(true);
+      expect(s.residual).toBeLessThan(10 * c.n * EPS);
+      expect(maxAbsDiff(s.X, c.careX)).toBeLessThan(10 * c.n * EPS * s.conditionEstimate * frob(c.careX));
+    }
+  });
+
   it('agrees with scipy.linalg.solve_continuous_are on seeded stabilisable systems (fixture)', () => {
     for (const c of fixture.cases) {
       const s = solveContinuousRiccati(c.A, c.B, c.Q, c.R);

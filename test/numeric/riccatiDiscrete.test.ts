@@ -24,6 +24,15 @@ describe('solveDiscreteRiccati (structure-preserving doubling + Newton)', () => 
     expect(s.closedLoopEigenvalues.every((l) => Math.hypot(l.re, l.im) < 1)).toBe(true);
   });
 
+  it('agrees with SciPy on problems with a cross term N (fixture, argument s)', () => {
+    for (const c of fixture.crossTerm) {
+      const s = solveDiscreteRiccati(c.A, c.B, c.Q, c.R, c.N);
+      expect(s.ok, `n=${c.n} m=${c.m}`).toBe(true);
+      expect(s.residual).toBeLessThan(10 * c.n * EPS);
+      expect(maxAbsDiff(s.X, c.dareX)).toBeLessThan(10 * c.n * EPS * s.conditionEstimate * frob(c.dareX));
+    }
+  });
+
   it('agrees with scipy.linalg.solve_discrete_are on seeded stabilisable systems (fixture)', () => {
     for (const c of fixture.cases) {
       const s = solveDiscreteRiccati(c.A, c.B, c.Q, c.R);

@@ -150,6 +150,32 @@ for n, m in ((1, 1), (2, 3), (4, 4), (6, 2), (9, 7)):
     c = rng.standard_normal((n, m))
     sylvester.append({'A': rows(a), 'B': rows(b), 'C': rows(c), 'X': rows(sla.solve_sylvester(a, b, c))})
 
+# Riccati equations with a cross term N (argument s of SciPy's solvers); N is small enough that
+# Q − N·R⁻¹·Nᵀ stays positive definite, so the folded problem is well posed.
+cross = []
+for n, m in ((3, 1), (5, 2), (8, 3)):
+    for attempt in range(200):
+        a = rng.standard_normal((n, n)) / np.sqrt(n)
+        b = rng.standard_normal((n, m))
+        q = spd(n)
+        r = spd(m)
+        nn = 0.2 * rng.standard_normal((n, m))
+        if np.min(np.linalg.eigvalsh(q - nn @ np.linalg.solve(r, nn.T))) <= 0.05:
+            continue
+        abar = a - b @ np.linalg.solve(r, nn.T)
+        if not (stabilisable(abar, b, False) and stabilisable(abar, b, True)):
+            continue
+        x_c = sla.solve_continuous_are(a, b, q, r, s=nn)
+        x_d = sla.solve_discrete_are(a, b, q, r, s=nn)
+        qbar = q - nn @ np.linalg.solve(r, nn.T)
+        if care_residual(abar, b, qbar, r, x_c) > 1e3 * EPS * n or dare_residual(abar, b, qbar, r, x_d) > 1e3 * EPS * n:
+            continue
+        if care_condition(abar, b, qbar, r, x_c) > CONDITION_LIMIT or dare_condition(abar, b, qbar, r, x_d) > CONDITION_LIMIT:
+            continue
+        cross.append({'n': n, 'm': m, 'A': rows(a), 'B': rows(b), 'Q': rows(q), 'R': rows(r), 'N': rows(nn),
+                      'careX': rows(x_c), 'dareX': rows(x_d)})
+        break
+
 out = {
     'generator': 'test/reference/numeric_solvers.py',
     'scipy': scipy.__version__, 'numpy': np.__version__,
@@ -158,6 +184,7 @@ out = {
     'cases': cases,
     'pencils': pencils,
     'sylvester': sylvester,
+    'crossTerm': cross,
 }
 path = os.path.join(os.path.dirname(__file__), '..', 'fixtures', 'reference', 'numeric_solvers.json')
 with open(path, 'w') as f:
