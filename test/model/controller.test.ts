@@ -79,6 +79,7 @@ controller full for rig {
     const doc = check(plantText + '\ncontroller opt for rig {\n  lqr Q = diag(1, 2), R = identity(2)\n  integral pos\n}\n');
     const d = doc.diagnostics.find((x) => x.code === 'model/matrix-shape')!;
     expect(d.message).toBe('Q is 2×2 but must be 3×3: the plant has 2 states (x, v) plus 1 integrator (pos)');
+    expect(d.data).toEqual({ fix: 'resize-matrix', expectedRows: 3, expectedCols: 3 });
     expect(controllerOf(doc, 'opt').usable).toBe(false);
   });
 

@@ -107,7 +107,7 @@ plant drop {
     const plant = plantOf(doc, 'drop');
     const warning = doc.diagnostics.find((d) => d.code === 'model/not-equilibrium')!;
     expect(warning.severity).toBe('warning');
-    expect(warning.data).toMatchObject({ fix: 'hold-with-input', suggested: { thrust: 19.62 } });
+    expect(warning.data).toMatchObject({ fix: 'hold-with-input', suggested: { thrust: 19.62 }, inputs: [19.62] });
     expect(plant.operatingPoint!.isEquilibrium).toBe(false);
     expect(plant.operatingPoint!.drift).toEqual([0, -9.81]);
     expect(plant.operatingPoint!.holdingInput![0]).toBeCloseTo(19.62, 12);

@@ -295,7 +295,7 @@ function weightMatrix(
   const before = out.filter((x) => x.severity === 'error').length;
   const matrix = evaluateSourcedMatrix(weight.value, { ...scope, place: 'a weight' }, out);
   if (!matrix) return null;
-  if (shapeKnown && !checkShape(matrix, { name, rows, cols, rowReason, colReason, makeDiagnostic: (range, message) => matrixShape.create(range, [message]) }, out)) return null;
+  if (shapeKnown && !checkShape(matrix, { name, rows, cols, rowReason, colReason, makeDiagnostic: (range, message, data) => matrixShape.create(range, [message], { data }) }, out)) return null;
   if (out.filter((x) => x.severity === 'error').length > before) return null;
   const values = filled(matrix.rows);
   if (symmetric) {

@@ -204,6 +204,7 @@ export function buildEquationForm(
       advice = `; ${signals.inputs.map((s, i) => `${s.name} = ${round(holdingInput[i]!)}`).join(', ')} would hold it`;
       data.fix = 'hold-with-input';
       data.suggested = suggested;
+      data.inputs = holdingInput;
     } else {
       advice = m === 0 ? '; the plant has no input to hold it' : '; no input can hold it there';
     }

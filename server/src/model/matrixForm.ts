@@ -134,8 +134,8 @@ export function buildMatrixForm(
         cols,
         rowReason: rowReason.declared ? `the plant declares ${rowReason.text}` : `there are ${rowReason.text}`,
         colReason: colReason.declared ? `the plant declares ${colReason.text}` : `the other rows have ${cols}`,
-        makeDiagnostic: (range, message) =>
-          colReason.declared || !message.includes('entr') ? matrixShape.create(range, [message]) : raggedMatrix.create(range, [message]),
+        makeDiagnostic: (range, message, data) =>
+          colReason.declared || !message.includes('entr') ? matrixShape.create(range, [message], { data }) : raggedMatrix.create(range, [message], { data }),
       },
       out,
     );

@@ -92,7 +92,7 @@ export interface ShapeExpectation {
   rowReason: string;
   colReason: string;
   /** Which code to use for a column mismatch: a declared width, or only the other rows. */
-  makeDiagnostic: (range: Range, message: string) => Diagnostic;
+  makeDiagnostic: (range: Range, message: string, data: { fix: string; expectedRows: number; expectedCols: number }) => Diagnostic;
 }
 
 /**
@@ -103,6 +103,7 @@ export interface ShapeExpectation {
 export function checkShape(matrix: SourcedMatrix, expect: ShapeExpectation, out: Diagnostic[]): boolean {
   const { rows, source } = matrix;
   const { name } = expect;
+  const resize = { fix: 'resize-matrix', expectedRows: expect.rows, expectedCols: expect.cols };
   if (!matrix.literal) {
     const found = rows.length;
     const width = rows[0]?.length ?? 0;
@@ -110,7 +111,7 @@ export function checkShape(matrix: SourcedMatrix, expect: ShapeExpectation, out:
     const reasons = [...new Set([found !== expect.rows ? expect.rowReason : '', width !== expect.cols ? expect.colReason : ''])]
       .filter(Boolean)
       .join(' and ');
-    out.push(expect.makeDiagnostic(source.range, `${name} is ${found}×${width} but must be ${expect.rows}×${expect.cols}: ${reasons}`));
+    out.push(expect.makeDiagnostic(source.range, `${name} is ${found}×${width} but must be ${expect.rows}×${expect.cols}: ${reasons}`, resize));
     return false;
   }
   let ok = true;
@@ -120,13 +121,14 @@ export function checkShape(matrix: SourcedMatrix, expect: ShapeExpectation, out:
       expect.makeDiagnostic(
         spanRange(source.rowRanges[expect.rows]!, source.rowRanges[rows.length - 1]!),
         `${name} has ${plural(rows.length, 'row')} but ${expect.rowReason}`,
+        resize,
       ),
     );
   } else if (rows.length < expect.rows) {
     ok = false;
     const last = source.rowRanges[rows.length - 1];
     out.push(
-      expect.makeDiagnostic(last ?? source.range, `${name} has ${plural(rows.length, 'row')} but ${expect.rowReason}`),
+      expect.makeDiagnostic(last ?? source.range, `${name} has ${plural(rows.length, 'row')} but ${expect.rowReason}`, resize),
     );
   }
   const checkedRows = Math.min(rows.length, expect.rows);
@@ -139,7 +141,7 @@ export function checkShape(matrix: SourcedMatrix, expect: ShapeExpectation, out:
       count > expect.cols
         ? spanRange(source.entryRanges[i]![expect.cols]!, source.entryRanges[i]![count - 1]!)
         : source.rowRanges[i]!;
-    out.push(expect.makeDiagnostic(range, `${where} has ${plural(count, 'entry', 'entries')} but ${expect.colReason}`));
+    out.push(expect.makeDiagnostic(range, `${where} has ${plural(count, 'entry', 'entries')} but ${expect.colReason}`, resize));
   }
   return ok;
 }
