@@ -10,7 +10,7 @@ import type { IToken, TokenType } from 'chevrotain';
 import * as T from './tokens';
 
 /** Deepest bracket nesting accepted; deeper input is reported, not parsed (keeps the stack safe). */
-export const MAX_NESTING = 100;
+export const MAX_NESTING = 64;
 
 export interface Statement {
   kind: 'statement';
