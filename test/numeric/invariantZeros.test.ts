@@ -106,6 +106,26 @@ describe('invariantZeros (Emami-Naeini & Van Dooren reduction + QZ)', () => {
     }
   });
 
+  it('finds no zeros for a state-transformed integrator chain (infinite zero of high index)', () => {
+    // A 4-integrator chain has a single infinite zero of order 4. After a non-structured similarity
+    // transform, QZ on the raw Rosenbrock pencil perturbs such infinite eigenvalues to |λ| ≈ ε^(−1/4)
+    // and cannot tell them from finite ones; the reduction removes them exactly.
+    const c = Math.cos(0.7);
+    const s = Math.sin(0.7);
+    const T = [[c, s, 0, 0], [-s, c, 0, 0], [0, 0, c, -s], [0, 0, s, c]]; // orthogonal
+    const mul = (a: number[][], b: number[][]) => a.map((row) => b[0].map((_, j) => row.reduce((t, v, k) => t + v * b[k][j], 0)));
+    const tr = (a: number[][]) => a[0].map((_, j) => a.map((row) => row[j]));
+    const A = mul(mul(T, [[0, 1, 0, 0], [0, 0, 1, 0], [0, 0, 0, 1], [0, 0, 0, 0]]), tr(T));
+    const B = mul(T, [[0], [0], [0], [1]]);
+    const C = mul([[1, 0, 0, 0]], tr(T));
+    const { zeros, normalRank } = invariantZeros(A, B, C, [[0]]);
+    expect(normalRank).toBe(1);
+    expect(zeros).toHaveLength(0);
+    // With output y = x₁ + 3x₂ (numerator 3s + 1) the single zero −1/3 survives the same transform.
+    const withZero = invariantZeros(A, B, mul([[1, 3, 0, 0]], tr(T)), [[0]]);
+    expect(closeSets(withZero.zeros, [{ re: -1 / 3, im: 0 }], 1e3 * EPS)).toBe(true);
+  });
+
   it('reports normal rank 0 (no zeros) for a system whose input never reaches the output', () => {
     const { zeros, normalRank } = invariantZeros([[-1, 0], [0, -2]], [[1], [0]], [[0, 1]], [[0]]);
     expect(normalRank).toBe(0);

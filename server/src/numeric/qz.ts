@@ -323,8 +323,10 @@ export function generalizedEigenvalues(A: Rows, B: Rows): GeneralizedEigenvalues
 /**
  * The finite eigenvalues α/β of A − λB. A pair counts as infinite when |α|·tol·‖B‖_F > |β|·max(‖A‖_F, ‖B‖_F),
  * i.e. when |λ| exceeds max(‖A‖, ‖B‖)/‖B‖ by the factor 1/tol; pairs with α ≈ β ≈ 0 (a singular pencil)
- * are dropped as indeterminate. The default tol = n·√ε reflects that infinite eigenvalues of
- * higher index are perturbed to size ε^(1/k) (Moler & Stewart 1973, section 6; common practice).
+ * are dropped as indeterminate. The default tol = n·√ε covers infinite eigenvalues of index 2,
+ * which rounding perturbs to |λ| ≈ ε^(−1/2) (common practice). Infinite eigenvalues of index k ≥ 3
+ * become |λ| ≈ ε^(−1/k) and are indistinguishable from large finite ones unless the pencil's
+ * zero structure is exact: for the zeros of a system use invariantZeros, which removes them first.
  */
 export function finiteGeneralizedEigenvalues(A: Rows, B: Rows, tol?: number): Complex[] {
   const n = A.length;
