@@ -8,6 +8,9 @@ import type { AnalysisSettings } from './settings';
 import { defaultSettings } from './settings';
 import { EPS, frobenius, singularValuesOf, solveRows, thinSvd, transposeRows } from './controlLinearAlgebra';
 import type { Domain } from './structure';
+import { closedLoopDcGain } from './dcGain';
+
+export { closedLoopDcGain };
 
 export type SetpointFeasibility = 'unique' | 'minimum-norm' | 'infeasible' | 'zero-at-dc';
 
@@ -47,31 +50,6 @@ function rosenbrockAtDc(A: Rows, B: Rows, Ct: Rows, Dt: Rows, domain: Domain): R
 /** Rank tolerance max(rows, cols)·ε·σ_max·10 for the Rosenbrock matrix. */
 function rankTolerance(s: number[], rows: number, cols: number): number {
   return 10 * Math.max(rows, cols) * EPS * (s[0] ?? 0);
-}
-
-/** Closed-loop DC gain and whether it exists. */
-export function closedLoopDcGain(
-  A: Rows,
-  B: Rows,
-  Ct: Rows,
-  Dt: Rows,
-  K: Rows,
-  domain: Domain,
-): { gain: Rows | null; defined: boolean } {
-  const n = A.length;
-  const m = B[0]?.length ?? 0;
-  const BK = A.map((_, i) => A.map((__, j) => B[i].reduce((sum, b, c) => sum + b * K[c][j], 0)));
-  // M = −(A − BK) or I − (A − BK)
-  const M = A.map((row, i) => row.map((v, j) => (domain === 'discrete' && i === j ? 1 : 0) - (v - BK[i][j])));
-  const s = singularValuesOf(M);
-  const tolerance = 10 * Math.max(1, n) * EPS * (s[0] ?? 0);
-  if (n > 0 && !(s[n - 1] > tolerance)) return { gain: null, defined: false };
-  const X = n === 0 ? [] : solveRows(M, B).X; // n × m
-  const Ccl = Ct.map((row, i) => row.map((v, j) => v - Dt[i].reduce((sum, d, c) => sum + d * K[c][j], 0)));
-  const gain = Ct.map((_, i) =>
-    Array.from({ length: m }, (_, c) => Dt[i][c] + Ccl[i].reduce((sum, v, k) => sum + v * X[k][c], 0)),
-  );
-  return { gain, defined: true };
 }
 
 export function setpointGains(
