@@ -125,3 +125,33 @@ describe('margins with an observer in the loop', () => {
     expect(margins.perInput[0].phaseMarginDeg).not.toBeNull();
   });
 });
+
+describe('Hessenberg frequency evaluation', () => {
+  it('agrees with a dense complex LU solve of (jωI − A) X = B', async () => {
+    const { transferEvaluator } = await import('../../server/src/control/frequencyResponse');
+    const { solveComplexLinear } = await import('../../server/src/numeric');
+    const { reference } = await import('./controlTestHelpers');
+    for (const c of reference.zeroOrderHold) {
+      const C = [c.A[0].map((_, j) => Math.cos(j + 1)), c.A[0].map((_, j) => Math.sin(j + 1))];
+      const D = [new Array(c.m).fill(0.5), new Array(c.m).fill(0)];
+      const evaluate = transferEvaluator(c.A, c.B, C, D);
+      for (const omega of [0.1, 1, 7]) {
+        const dense = solveComplexLinear(
+          { re: c.A.map((row) => row.map((v) => -v)), im: c.A.map((row, i) => row.map((_, j) => (i === j ? omega : 0))) },
+          { re: c.B, im: c.B.map((row) => row.map(() => 0)) },
+        );
+        const fast = evaluate({ re: 0, im: omega }).value;
+        for (let i = 0; i < 2; i++) for (let j = 0; j < c.m; j++) {
+          let re = D[i][j];
+          let im = 0;
+          for (let k = 0; k < c.n; k++) {
+            re += C[i][k] * dense.X.re[k][j];
+            im += C[i][k] * dense.X.im[k][j];
+          }
+          const size = Math.max(1, Math.hypot(re, im));
+          expect(Math.hypot(fast.re[i][j] - re, fast.im[i][j] - im)).toBeLessThan(1e3 * c.n * Number.EPSILON * size / Math.max(dense.rcond, Number.EPSILON));
+        }
+      }
+    }
+  });
+});

@@ -1,9 +1,140 @@
 // Frequency response of a state-space model G = C (λI − A)⁻¹ B + D at λ = jω (continuous) or
-// λ = e^{jωT} (discrete, ω up to the Nyquist frequency π/T), by one complex LU solve per
-// frequency (numeric solveComplexLinear). Phase is unwrapped along the grid (jumps > 180°
-// removed by ±360°), magnitude in dB.
+// λ = e^{jωT} (discrete, ω up to the Nyquist frequency π/T). A is first reduced to upper
+// Hessenberg form A = Q H Qᵀ (numeric hessenbergDecomposition), so each frequency costs one
+// O(n²·m) complex Hessenberg solve with partial pivoting (Laub, "Efficient multivariable
+// frequency response computations", IEEE TAC 26(2), 1981) instead of an O(n³) LU.
+// Phase is unwrapped along the grid (jumps > 180° removed by ±360°), magnitude in dB.
 import type { Complex, ComplexRows, Rows } from '../numeric/types';
-import { solveComplexLinear } from '../numeric';
+import { hessenbergDecomposition } from '../numeric';
+
+export type TransferEvaluator = (point: Complex) => { value: ComplexRows; singular: boolean };
+
+/**
+ * Precomputes the Hessenberg form of A; the returned function evaluates G(λ). `singular` is set
+ * when λ is numerically an eigenvalue of A (a pivot below n·ε·‖H‖).
+ */
+export function transferEvaluator(A: Rows, B: Rows, C: Rows, D: Rows): TransferEvaluator {
+  const n = A.length;
+  const m = D[0]?.length ?? B[0]?.length ?? 0;
+  const p = C.length;
+  if (n === 0) {
+    return () => ({ value: { re: D.map((row) => row.slice()), im: D.map((row) => row.map(() => 0)) }, singular: false });
+  }
+  const { H, Q } = hessenbergDecomposition(A);
+  const h = new Float64Array(n * n);
+  let scale = 0;
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      h[i * n + j] = H[i][j];
+      scale = Math.max(scale, Math.abs(H[i][j]));
+    }
+  }
+  // B̃ = Qᵀ B (n × m), C̃ = C Q (p × n).
+  const bt = new Float64Array(n * m);
+  for (let i = 0; i < n; i++) for (let j = 0; j < m; j++) {
+    let sum = 0;
+    for (let k = 0; k < n; k++) sum += Q[k][i] * B[k][j];
+    bt[i * m + j] = sum;
+  }
+  const ct = new Float64Array(p * n);
+  for (let i = 0; i < p; i++) for (let j = 0; j < n; j++) {
+    let sum = 0;
+    for (let k = 0; k < n; k++) sum += C[i][k] * Q[k][j];
+    ct[i * n + j] = sum;
+  }
+  const pivotFloor = n * Number.EPSILON * Math.max(scale, Number.MIN_VALUE);
+  return (point: Complex) => {
+    // M = λI − H (upper Hessenberg), right-hand sides X = B̃.
+    const mr = new Float64Array(n * n);
+    const mi = new Float64Array(n * n);
+    for (let k = 0; k < n * n; k++) mr[k] = -h[k];
+    for (let i = 0; i < n; i++) {
+      mr[i * n + i] += point.re;
+      mi[i * n + i] = point.im;
+    }
+    const xr = bt.slice();
+    const xi = new Float64Array(n * m);
+    let singular = false;
+    for (let k = 0; k < n - 1; k++) {
+      const top = k * n + k;
+      const below = (k + 1) * n + k;
+      if (Math.hypot(mr[below], mi[below]) > Math.hypot(mr[top], mi[top])) {
+        for (let j = k; j < n; j++) {
+          const a = k * n + j;
+          const b = (k + 1) * n + j;
+          [mr[a], mr[b]] = [mr[b], mr[a]];
+          [mi[a], mi[b]] = [mi[b], mi[a]];
+        }
+        for (let j = 0; j < m; j++) {
+          const a = k * m + j;
+          const b = (k + 1) * m + j;
+          [xr[a], xr[b]] = [xr[b], xr[a]];
+          [xi[a], xi[b]] = [xi[b], xi[a]];
+        }
+      }
+      const pr = mr[top];
+      const pi = mi[top];
+      const pivot = pr * pr + pi * pi;
+      if (pivot === 0) {
+        singular = true;
+        continue;
+      }
+      // l = M[k+1][k] / M[k][k]
+      const lr = (mr[below] * pr + mi[below] * pi) / pivot;
+      const li = (mi[below] * pr - mr[below] * pi) / pivot;
+      for (let j = k + 1; j < n; j++) {
+        const a = k * n + j;
+        const b = (k + 1) * n + j;
+        mr[b] -= lr * mr[a] - li * mi[a];
+        mi[b] -= lr * mi[a] + li * mr[a];
+      }
+      for (let j = 0; j < m; j++) {
+        const a = k * m + j;
+        const b = (k + 1) * m + j;
+        xr[b] -= lr * xr[a] - li * xi[a];
+        xi[b] -= lr * xi[a] + li * xr[a];
+      }
+    }
+    // Back substitution on the upper triangle.
+    for (let i = n - 1; i >= 0; i--) {
+      const dr = mr[i * n + i];
+      const di = mi[i * n + i];
+      const d = dr * dr + di * di;
+      if (Math.sqrt(d) <= pivotFloor) singular = true;
+      for (let j = 0; j < m; j++) {
+        let sr = xr[i * m + j];
+        let si = xi[i * m + j];
+        for (let k = i + 1; k < n; k++) {
+          const ar = mr[i * n + k];
+          const ai = mi[i * n + k];
+          sr -= ar * xr[k * m + j] - ai * xi[k * m + j];
+          si -= ar * xi[k * m + j] + ai * xr[k * m + j];
+        }
+        xr[i * m + j] = (sr * dr + si * di) / d;
+        xi[i * m + j] = (si * dr - sr * di) / d;
+      }
+    }
+    const re: Rows = [];
+    const im: Rows = [];
+    for (let i = 0; i < p; i++) {
+      const rowRe = new Array<number>(m).fill(0);
+      const rowIm = new Array<number>(m).fill(0);
+      for (let j = 0; j < m; j++) {
+        let sumRe = D[i]?.[j] ?? 0;
+        let sumIm = 0;
+        for (let k = 0; k < n; k++) {
+          sumRe += ct[i * n + k] * xr[k * m + j];
+          sumIm += ct[i * n + k] * xi[k * m + j];
+        }
+        rowRe[j] = sumRe;
+        rowIm[j] = sumIm;
+      }
+      re.push(rowRe);
+      im.push(rowIm);
+    }
+    return { value: { re, im }, singular };
+  };
+}
 
 export interface FrequencyChannel {
   output: number;
@@ -22,38 +153,9 @@ export function frequencyPoint(omega: number, domain: 'continuous' | 'discrete',
   return domain === 'continuous' ? { re: 0, im: omega } : { re: Math.cos(omega * T), im: Math.sin(omega * T) };
 }
 
-/**
- * G(λ) as separate real and imaginary p × m arrays; `singular` when λ is (numerically) an
- * eigenvalue of A.
- */
+/** G(λ) at one point (prefer transferEvaluator for many points). */
 export function evaluateTransfer(A: Rows, B: Rows, C: Rows, D: Rows, point: Complex): { value: ComplexRows; singular: boolean } {
-  const n = A.length;
-  const m = D[0]?.length ?? B[0]?.length ?? 0;
-  const p = C.length;
-  if (n === 0) return { value: { re: D.map((row) => row.slice()), im: D.map((row) => row.map(() => 0)) }, singular: false };
-  const matrix: ComplexRows = {
-    re: A.map((row, i) => row.map((value, j) => (i === j ? point.re : 0) - value)),
-    im: A.map((row, i) => row.map((_, j) => (i === j ? point.im : 0))),
-  };
-  const rhs: ComplexRows = { re: B.map((row) => row.slice()), im: B.map((row) => row.map(() => 0)) };
-  const solution = solveComplexLinear(matrix, rhs);
-  const re: Rows = [];
-  const im: Rows = [];
-  for (let i = 0; i < p; i++) {
-    re.push(new Array<number>(m).fill(0));
-    im.push(new Array<number>(m).fill(0));
-    for (let j = 0; j < m; j++) {
-      let sumRe = D[i]?.[j] ?? 0;
-      let sumIm = 0;
-      for (let k = 0; k < n; k++) {
-        sumRe += C[i][k] * solution.X.re[k][j];
-        sumIm += C[i][k] * solution.X.im[k][j];
-      }
-      re[i][j] = sumRe;
-      im[i][j] = sumIm;
-    }
-  }
-  return { value: { re, im }, singular: solution.singular };
+  return transferEvaluator(A, B, C, D)(point);
 }
 
 export function unwrapDegrees(phases: number[]): number[] {
@@ -82,8 +184,9 @@ export function frequencyResponse(
   const m = D[0]?.length ?? B[0]?.length ?? 0;
   const magnitude: number[][][] = Array.from({ length: p }, () => Array.from({ length: m }, () => []));
   const phase: number[][][] = Array.from({ length: p }, () => Array.from({ length: m }, () => []));
+  const evaluate = transferEvaluator(A, B, C, D);
   for (const omega of omegas) {
-    const { value } = evaluateTransfer(A, B, C, D, frequencyPoint(omega, domain, T ?? 1));
+    const { value } = evaluate(frequencyPoint(omega, domain, T ?? 1));
     for (let i = 0; i < p; i++) {
       for (let j = 0; j < m; j++) {
         const re = value.re[i][j];
@@ -115,8 +218,9 @@ export function logarithmicGrid(low: number, high: number, perDecade: number): n
  * the grid). Refined by bisection on log ω (at most 60 steps).
  */
 export function bandwidth(A: Rows, B: Rows, C: Rows, D: Rows, omegas: number[], domain: 'continuous' | 'discrete', T?: number): number | null {
+  const evaluate = transferEvaluator(A, B, C, D);
   const magnitudeAt = (omega: number): number => {
-    const { value } = evaluateTransfer(A, B, C, D, frequencyPoint(omega, domain, T ?? 1));
+    const { value } = evaluate(frequencyPoint(omega, domain, T ?? 1));
     return Math.hypot(value.re[0][0], value.im[0][0]);
   };
   const dc = magnitudeAt(0);

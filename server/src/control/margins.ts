@@ -24,7 +24,7 @@ import type { Complex, ComplexRows, Rows } from '../numeric/types';
 import { solveComplexLinear, solveLinear } from '../numeric';
 import { eigenvaluesOf } from './controlLinearAlgebra';
 import type { StateSpace } from './combinedClosedLoop';
-import { evaluateTransfer, frequencyPoint, logarithmicGrid } from './frequencyResponse';
+import { frequencyPoint, logarithmicGrid, transferEvaluator } from './frequencyResponse';
 
 export interface InputLoopMargins {
   input: number;
@@ -204,8 +204,8 @@ export function loopMargins(loop: StateSpace, domain: 'continuous' | 'discrete',
   const grid = frequencyGrid(loop, closedPoles, domain, T);
   const rootEps = Math.sqrt(Number.EPSILON);
 
-  const matrixAt = (omega: number): ComplexRows =>
-    evaluateTransfer(loop.A, loop.B, loop.C, loop.D, frequencyPoint(omega, domain, T)).value;
+  const evaluate = transferEvaluator(loop.A, loop.B, loop.C, loop.D);
+  const matrixAt = (omega: number): ComplexRows => evaluate(frequencyPoint(omega, domain, T)).value;
   const perInput: InputLoopMargins[] = [];
   for (let channel = 0; channel < m; channel++) {
     const at = (omega: number): Complex => loopAtInput(matrixAt(omega), channel);
@@ -256,12 +256,12 @@ export function loopMargins(loop: StateSpace, domain: 'continuous' | 'discrete',
     }
     for (let k = 0; k < grid.length; k++) if (values[k].im === 0) consider(values[k], grid[k]);
     // Endpoints ω = 0 and ω = ∞ (continuous) or π/T (discrete): L is real there.
-    const zero = evaluateTransfer(loop.A, loop.B, loop.C, loop.D, domain === 'continuous' ? { re: 0, im: 0 } : { re: 1, im: 0 });
+    const zero = evaluate(domain === 'continuous' ? { re: 0, im: 0 } : { re: 1, im: 0 });
     if (!zero.singular) consider(loopAtInput(zero.value, channel), 0);
     if (domain === 'continuous') {
       consider(loopAtInput({ re: loop.D, im: loop.D.map((row) => row.map(() => 0)) }, channel), Infinity);
     } else {
-      const nyquist = evaluateTransfer(loop.A, loop.B, loop.C, loop.D, { re: -1, im: 0 });
+      const nyquist = evaluate({ re: -1, im: 0 });
       if (!nyquist.singular) consider(loopAtInput(nyquist.value, channel), Math.PI / T);
     }
     let upper = Infinity;
