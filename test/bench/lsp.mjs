@@ -1,0 +1,266 @@
+// Language-server latency figures (run after the build: `node test/bench/lsp.mjs`). No assertions.
+//   - didChange → publishDiagnostics of the fast checks, and → the full analysis
+//     (loopwright/analysisUpdated), median and 95th percentile over 200 edits, debounce 0,
+//     for generated 10- and 100-state models;
+//   - hover latency while a 200-state model analyses (median).
+// `--soak N` instead replays N seeded random edits (default 10,000) with requests in between
+// and reports whether the server stayed up and answered everything.
+import { spawn } from 'node:child_process';
+import { existsSync, readFileSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { performance } from 'node:perf_hooks';
+import { fileURLToPath } from 'node:url';
+import rpc from 'vscode-jsonrpc/node';
+
+const root = join(dirname(fileURLToPath(import.meta.url)), '..', '..');
+const serverBundle = join(root, 'dist', 'server.cjs');
+if (!existsSync(serverBundle)) {
+  console.error('dist/server.cjs is missing: run `node tools/build.mjs` first');
+  process.exit(1);
+}
+
+const args = process.argv.slice(2);
+const option = (name, fallback) => {
+  const index = args.indexOf(name);
+  return index >= 0 && args[index + 1] !== undefined ? Number(args[index + 1]) : fallback;
+};
+
+function startSession(settings) {
+  const child = spawn(process.execPath, [serverBundle, '--stdio'], { cwd: root, stdio: ['pipe', 'pipe', 'pipe'] });
+  const connection = rpc.createMessageConnection(new rpc.StreamMessageReader(child.stdout), new rpc.StreamMessageWriter(child.stdin));
+  const listeners = new Set();
+  const emit = (event) => listeners.forEach((listener) => listener(event));
+  const logs = [];
+  let exited = null;
+  child.on('exit', (code) => (exited = code));
+  child.stderr.on('data', (chunk) => logs.push(String(chunk)));
+  connection.onNotification('textDocument/publishDiagnostics', (params) => emit({ kind: 'diagnostics', time: performance.now(), ...params }));
+  connection.onNotification('loopwright/analysisUpdated', (params) => emit({ kind: 'analysed', time: performance.now(), ...params }));
+  connection.onNotification('window/logMessage', (params) => logs.push(params.message));
+  connection.onRequest('workspace/codeLens/refresh', () => null);
+  connection.onRequest('workspace/inlayHint/refresh', () => null);
+  connection.listen();
+  const waitFor = (test) =>
+    new Promise((resolve) => {
+      const listener = (event) => {
+        if (test(event)) {
+          listeners.delete(listener);
+          resolve(event);
+        }
+      };
+      listeners.add(listener);
+    });
+  return {
+    connection,
+    logs,
+    waitFor,
+    get exited() {
+      return exited;
+    },
+    async initialize() {
+      await connection.sendRequest('initialize', { processId: process.pid, rootUri: null, capabilities: {}, initializationOptions: { settings } });
+      await connection.sendNotification('initialized', {});
+    },
+    async stop() {
+      try {
+        await connection.sendRequest('shutdown');
+        await connection.sendNotification('exit');
+      } catch {
+        /* gone */
+      }
+      connection.dispose();
+      setTimeout(() => child.kill(), 1000).unref();
+    },
+  };
+}
+
+/** A heated rod cut into n segments (demo scenario): tridiagonal conduction, heater at one end. */
+function ladderModel(n) {
+  const rows = [];
+  for (let i = 0; i < n; i++) {
+    const row = [];
+    for (let j = 0; j < n; j++) {
+      if (i === j) row.push(i === 0 || i === n - 1 ? '-k - h' : '-2*k');
+      else if (Math.abs(i - j) === 1) row.push('k');
+      else row.push('0');
+    }
+    rows.push(row.join(', '));
+  }
+  const states = Array.from({ length: n }, (_, i) => `T${i + 1}`);
+  const b = states.map((_, i) => (i === 0 ? 'g' : '0')).join('; ');
+  const c = states.map((_, i) => (i === n - 1 ? '1' : '0')).join(', ');
+  const text = [
+    `# heated rod, ${n} segments (generated for the benchmark)`,
+    `plant rod {`,
+    `  param k = 0.5`,
+    `  param h = 0.05`,
+    `  param g = 1`,
+    `  states ${states.join(', ')}`,
+    `  inputs heater`,
+    `  outputs tip`,
+    `  A = [${rows.join(';\n       ')}]`,
+    `  B = [${b}]`,
+    `  C = [${c}]`,
+    `}`,
+    ``,
+    `controller warm for rod {`,
+    `  lqr Q = identity(${n}), R = 1`,
+    `  track tip`,
+    `}`,
+    ``,
+  ].join('\n');
+  return text;
+}
+
+const percentile = (values, p) => {
+  const sorted = [...values].sort((a, b) => a - b);
+  if (sorted.length === 0) return NaN;
+  return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)];
+};
+const ms = (value) => (Number.isFinite(value) ? value.toFixed(1) : '—');
+
+async function measureEdits(n, edits) {
+  const session = startSession({ debounceMs: 0 });
+  await session.initialize();
+  const uri = `file:///bench/rod${n}.plant`;
+  const text = ladderModel(n);
+  const opened = session.waitFor((e) => e.kind === 'analysed' && e.uri === uri && e.version === 1);
+  await session.connection.sendNotification('textDocument/didOpen', { textDocument: { uri, languageId: 'plant', version: 1, text } });
+  await opened;
+  const line = 2; // `  param k = 0.5`
+  const fast = [];
+  const full = [];
+  for (let i = 0; i < edits; i++) {
+    const version = i + 2;
+    const value = (0.5 + ((i % 10) + 1) / 100).toFixed(2); // 0.51 … 0.60: a real change each time
+    const fastEvent = session.waitFor((e) => e.kind === 'diagnostics' && e.uri === uri && e.version === version);
+    const fullEvent = session.waitFor((e) => e.kind === 'analysed' && e.uri === uri && e.version === version);
+    const start = performance.now();
+    await session.connection.sendNotification('textDocument/didChange', {
+      textDocument: { uri, version },
+      contentChanges: [{ range: { start: { line, character: 12 }, end: { line, character: 12 + (i === 0 ? 3 : 4) } }, text: value }],
+    });
+    fast.push((await fastEvent).time - start);
+    full.push((await fullEvent).time - start);
+  }
+  await session.stop();
+  return { fast, full };
+}
+
+async function measureHoverDuringAnalysis(n, hovers) {
+  const session = startSession({ debounceMs: 0 });
+  await session.initialize();
+  const uri = `file:///bench/rod${n}.plant`;
+  const text = ladderModel(n);
+  const opened = session.waitFor((e) => e.kind === 'analysed' && e.uri === uri && e.version === 1);
+  await session.connection.sendNotification('textDocument/didOpen', { textDocument: { uri, languageId: 'plant', version: 1, text } });
+  await opened;
+  const latencies = [];
+  let during = 0;
+  let round = 0;
+  while (latencies.length < hovers && round < 20) {
+    round++;
+    const version = round + 1;
+    let analysed = false;
+    const fastEvent = session.waitFor((e) => e.kind === 'diagnostics' && e.uri === uri && e.version === version);
+    const done = session.waitFor((e) => e.kind === 'analysed' && e.uri === uri && e.version === version).then(() => (analysed = true));
+    await session.connection.sendNotification('textDocument/didChange', {
+      textDocument: { uri, version },
+      contentChanges: [{ range: { start: { line: 2, character: 12 }, end: { line: 2, character: 15 } }, text: round % 2 ? '0.6' : '0.5' }],
+    });
+    await fastEvent; // the fast check is done; the slow analysis now runs in the worker
+    while (!analysed && latencies.length < hovers) {
+      const start = performance.now();
+      await session.connection.sendRequest('textDocument/hover', { textDocument: { uri }, position: { line: 2, character: 8 } });
+      const elapsed = performance.now() - start;
+      if (!analysed) {
+        latencies.push(elapsed);
+        during++;
+      }
+    }
+    await done;
+  }
+  await session.stop();
+  return { latencies, during };
+}
+
+const ALPHABET = "abxyzJKQR0123456789.,;=+-*/^'()[]{}#jis \n";
+function seededRandom(seed) {
+  let state = seed >>> 0;
+  return () => {
+    state = (state + 0x6d2b79f5) >>> 0;
+    let t = state;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+const positionOf = (text, offset) => {
+  const before = text.slice(0, offset).split('\n');
+  return { line: before.length - 1, character: before[before.length - 1].length };
+};
+
+async function runSoak(edits) {
+  const samples = join(root, 'samples', 'hoist.plant');
+  let text = existsSync(samples) ? readFileSync(samples, 'utf8') : ladderModel(4);
+  const session = startSession({ debounceMs: 10 });
+  await session.initialize();
+  const uri = 'file:///bench/soak.plant';
+  await session.connection.sendNotification('textDocument/didOpen', { textDocument: { uri, languageId: 'plant', version: 1, text } });
+  const random = seededRandom(20_261_202);
+  let failures = 0;
+  const started = performance.now();
+  for (let i = 0; i < edits; i++) {
+    const version = i + 2;
+    const offset = Math.floor(random() * (text.length + 1));
+    let change;
+    if (random() < 0.55 || text.length === 0) {
+      const character = ALPHABET[Math.floor(random() * ALPHABET.length)];
+      const at = positionOf(text, offset);
+      change = { range: { start: at, end: at }, text: character };
+      text = text.slice(0, offset) + character + text.slice(offset);
+    } else {
+      const end = Math.min(text.length, offset + 1 + Math.floor(random() * 3));
+      change = { range: { start: positionOf(text, offset), end: positionOf(text, end) }, text: '' };
+      text = text.slice(0, offset) + text.slice(end);
+    }
+    const published = session.waitFor((e) => e.kind === 'diagnostics' && e.uri === uri && e.version === version);
+    await session.connection.sendNotification('textDocument/didChange', { textDocument: { uri, version }, contentChanges: [change] });
+    if (i % 25 === 24) {
+      const position = positionOf(text, Math.floor(random() * (text.length + 1)));
+      for (const method of ['textDocument/hover', 'textDocument/completion', 'textDocument/signatureHelp']) {
+        await session.connection.sendRequest(method, { textDocument: { uri }, position }).catch(() => failures++);
+      }
+      for (const method of ['textDocument/codeLens', 'textDocument/semanticTokens/full', 'textDocument/documentSymbol', 'textDocument/foldingRange']) {
+        await session.connection.sendRequest(method, { textDocument: { uri } }).catch(() => failures++);
+      }
+      await session.connection
+        .sendRequest('textDocument/formatting', { textDocument: { uri }, options: { tabSize: 2, insertSpaces: true } })
+        .catch(() => failures++);
+    }
+    await published;
+  }
+  const finalVersion = edits + 1;
+  await session.waitFor((e) => e.kind === 'analysed' && e.uri === uri && e.version === finalVersion);
+  const seconds = (performance.now() - started) / 1000;
+  const logged = session.logs.filter((line) => /failed/.test(line));
+  console.log(`soak: ${edits} random edits in ${seconds.toFixed(1)} s; server ${session.exited === null ? 'up' : `exited (${session.exited})`}; failed requests ${failures}; logged failures ${logged.length}`);
+  for (const line of logged.slice(0, 5)) console.log(`  ${line.split('\n')[0]}`);
+  await session.stop();
+}
+
+if (args.includes('--soak')) {
+  await runSoak(option('--soak', 10_000) || 10_000);
+} else {
+  const edits = option('--edits', 200);
+  const rows = [];
+  for (const n of [10, 100]) {
+    const { fast, full } = await measureEdits(n, edits);
+    rows.push([`${n} states`, ms(percentile(fast, 50)), ms(percentile(fast, 95)), ms(percentile(full, 50)), ms(percentile(full, 95))]);
+  }
+  const hover = await measureHoverDuringAnalysis(200, option('--hovers', 50));
+  console.log(`didChange → diagnostics, debounce 0, ${edits} edits (milliseconds)`);
+  console.log('model       fast p50  fast p95  full p50  full p95');
+  for (const row of rows) console.log(`${row[0].padEnd(10)}  ${row.slice(1).map((cell) => cell.padStart(8)).join('  ')}`);
+  console.log(`hover while a 200-state model analyses: median ${ms(percentile(hover.latencies, 50))} ms over ${hover.during} hovers`);
+}
