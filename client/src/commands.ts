@@ -46,7 +46,7 @@ async function pickController(context: CommandContext, argument: unknown): Promi
     return undefined;
   }
   const uri = document.uri.toString();
-  const { controllers } = await context.client.sendRequest<ControllersResult>(ControllersRequest, { uri });
+  const controllers = (await context.client.sendRequest<ControllersResult | null>(ControllersRequest, { uri }))?.controllers ?? [];
   if (controllers.length === 0) {
     void vscode.window.showInformationMessage('This plant file has no controller block.');
     return undefined;
@@ -67,9 +67,9 @@ async function pickController(context: CommandContext, argument: unknown): Promi
 }
 
 async function requestExport(context: CommandContext, ref: ControllerRef, format: ExportFormat): Promise<string | undefined> {
-  const result = await context.client.sendRequest<ExportResult>(ExportRequest, { ...ref, format });
-  if (result.text === null) {
-    void vscode.window.showWarningMessage(`No gains for “${ref.controller}”: ${result.reason ?? 'the controller is not designed'}.`);
+  const result = await context.client.sendRequest<ExportResult | null>(ExportRequest, { ...ref, format });
+  if (!result || result.text === null) {
+    void vscode.window.showWarningMessage(`No gains for “${ref.controller}”: ${result?.reason ?? 'the controller is not designed'}.`);
     return undefined;
   }
   return result.text;
@@ -154,7 +154,12 @@ export function registerCommands(context: CommandContext): vscode.Disposable[] {
           saveLabel: 'Write Report',
         });
         if (!target) return;
-        const { html } = await context.client.sendRequest<ReportResult>(ReportRequest, { uri });
+        const result = await context.client.sendRequest<ReportResult | null>(ReportRequest, { uri });
+        if (!result?.html) {
+          void vscode.window.showWarningMessage('The analysis of this document is not finished yet; try again in a moment.');
+          return;
+        }
+        const html = result.html;
         await vscode.workspace.fs.writeFile(target, new TextEncoder().encode(html));
         void vscode.window.showInformationMessage(`Design report written to ${vscode.workspace.asRelativePath(target)}.`);
       }),

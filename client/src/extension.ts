@@ -93,7 +93,7 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
   updateVisibility();
 
   const fetchControllerData = (params: ControllerDataParams) =>
-    languageClient.sendRequest<ControllerDataResult>(ControllerDataRequest, params);
+    languageClient.sendRequest<ControllerDataResult | null>(ControllerDataRequest, params);
   const panels = new ResponsePanels(context.extensionUri, fetchControllerData);
 
   // Panels also refresh on edits (after the server's debounce) in case the server sends no update notice.

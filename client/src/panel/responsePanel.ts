@@ -5,7 +5,7 @@ import * as vscode from 'vscode';
 import type { ControllerDataResult, ControllerRef } from '../protocol';
 import type { PanelReply, ReportMessage } from './messages';
 
-export type FetchControllerData = (ref: ControllerRef) => Promise<ControllerDataResult>;
+export type FetchControllerData = (ref: ControllerRef) => Promise<ControllerDataResult | null>;
 
 export const responsePanelViewType = 'loopwright.response';
 
@@ -83,7 +83,7 @@ class ResponsePanel {
       message = {
         type: 'report',
         title: `Response: ${this.ref.controller}`,
-        report: result.report,
+        report: result?.report ?? null,
         note: noteFor(result, this.ref.controller),
       };
     } catch (error) {
@@ -104,7 +104,9 @@ class ResponsePanel {
   }
 }
 
-function noteFor(result: ControllerDataResult, controller: string): string | undefined {
+function noteFor(result: ControllerDataResult | null, controller: string): string | undefined {
+  if (!result) return 'The language server could not analyse this document; see the Loopwright output.';
+  if (result.skipped?.reason === 'pending') return 'Analysis in progress…';
   if (!result.report) return `This document has no controller named “${controller}” any more.`;
   if (result.skipped) return `Analysis skipped: ${result.skipped.detail}.`;
   if (!result.report.designed) return `Controller “${controller}” is not designed yet; see the problems listed for it.`;
