@@ -89,6 +89,9 @@ plant mat {
     expect(eq.F).toEqual([[0]]);
     expect(eq.linearised).toBe(false);
     expect(eq.operatingPoint).toBeUndefined();
+    // Each row of the equation-form matrices points at its equation.
+    expect(eq.sources.B!.rowRanges.map((r) => r.start.line)).toEqual([10, 11]);
+    expect(eq.sources.C!.rowRanges.map((r) => r.start.line)).toEqual([12]);
   });
 
   it('report the drift of an affine model without `around` and the input that holds it', () => {

@@ -199,6 +199,7 @@ export function checkPlant(decl: PlantDecl, out: Diagnostic[], overrides: Readon
       E: result.E,
       F: result.F,
       equationRanges: result.equationRanges,
+      sources: result.sources,
       linearised: result.linearised,
     });
     if (result.operatingPoint) checked.operatingPoint = result.operatingPoint;

@@ -20,7 +20,7 @@ import { realEntry, zeros } from './matrixSource';
 import { suggestName } from './names';
 import { parameterScope, type ParameterTable } from './parameters';
 import { addImpliedSignal, roleArticle, type SignalTable } from './signals';
-import type { Diagnostic, NonlinearModel, OperatingPoint, Range, Rows } from './types';
+import type { Diagnostic, MatrixSource, NonlinearModel, OperatingPoint, Range, Rows } from './types';
 
 export interface EquationFormResult {
   A: Rows;
@@ -30,6 +30,8 @@ export interface EquationFormResult {
   E: Rows;
   F: Rows;
   equationRanges: { states: Range[]; outputs: Range[] };
+  /** Per matrix: each row points at its equation (state equations for A, B, E; output equations for C, D). */
+  sources: Partial<Record<'A' | 'B' | 'C' | 'D' | 'E', MatrixSource>>;
   operatingPoint?: OperatingPoint;
   nonlinear?: NonlinearModel;
   linearised: boolean;
@@ -123,7 +125,22 @@ export function buildEquationForm(
       outputs: signals.outputs.map((s, i) => outputEq[i]?.range ?? s.range),
     },
     linearised: evaluator.nonlinearAt !== null,
+    sources: {},
   };
+  const rowSource = (rows: Range[], cols: number): MatrixSource | undefined =>
+    rows.length === 0 ? undefined : { range: rows[0]!, rowRanges: rows, entryRanges: rows.map((r) => new Array<Range>(cols).fill(r)) };
+  const stateRows = result.equationRanges.states;
+  const outputRows = identityOutputs ? [] : result.equationRanges.outputs;
+  for (const [name, rows, cols] of [
+    ['A', stateRows, n],
+    ['B', stateRows, m],
+    ['E', stateRows, d],
+    ['C', outputRows, n],
+    ['D', outputRows, m],
+  ] as const) {
+    const source = rowSource([...rows], cols);
+    if (source) result.sources[name] = source;
+  }
   const slice = (dual: Dual | null, from: number, count: number): number[] =>
     Array.from({ length: count }, (_, j) => dual?.gradient?.[from + j] ?? 0);
   f.forEach((dual, i) => {
