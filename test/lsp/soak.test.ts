@@ -63,6 +63,9 @@ describe('random-edit soak', () => {
       const expected = analyze(outcome.finalText).diagnostics.map((d) => toLspDiagnostic(d, uri));
       expect(published.diagnostics).toEqual(JSON.parse(JSON.stringify(expected)));
       expect(session.stderr.filter((line) => /failed/.test(line))).toEqual([]);
+      // Never a stale publication: versions only grow.
+      const versions = session.published.filter((p) => p.uri === uri).map((p) => p.version ?? 0);
+      expect(versions.every((version, i) => i === 0 || version >= versions[i - 1])).toBe(true);
     },
   );
 });

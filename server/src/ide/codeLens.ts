@@ -28,6 +28,7 @@ function clip(text: string): string {
 
 export function codeLenses(view: AnalysisView, settings: LensSettings = defaultLensSettings): CodeLensRecord[] {
   const lenses: CodeLensRecord[] = [];
+  if (!settings.gains && !settings.prescaler && !settings.poles && !settings.step) return lenses;
   view.model.controllers.forEach((controller, controllerIndex) => {
     const range: Range = { start: controller.range.start, end: controller.range.start };
     const report = controllerReportAt(view, controllerIndex);
