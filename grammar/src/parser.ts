@@ -30,7 +30,7 @@ import type {
 } from './ast';
 import { foldPlainNumberMatrices, FOLD_MIN_ENTRIES } from './plainMatrix';
 import { LineIndex } from './positions';
-import { cutStatements, MAX_NESTING, type Statement } from './statements';
+import { cutStatements, MAX_NESTING, type Statement, type StatementUnit } from './statements';
 import * as T from './tokens';
 
 /** Deepest expression tree handed to the model (its evaluators recurse). */
@@ -968,8 +968,21 @@ function parseInto(
     report('syntax/unterminated-block', `${what} is missing its closing \`}\`${reason}`, at.startOffset, tokenEnd(at));
   };
 
+  // Depth of braces of an unrecognised top-level block being skipped (`plnt hoist { ... }`):
+  // its lines are not reported one by one; one diagnostic at its head says what is wrong.
+  let skippedDepth = 0;
+  const isHeader = (unit: StatementUnit | undefined): boolean =>
+    unit?.kind === 'statement' &&
+    (unit.tokens[0].tokenType === T.keywordTokens.plant || unit.tokens[0].tokenType === T.keywordTokens.controller);
+
   for (let index = 0; index < units.length; index++) {
     const unit = units[index];
+    if (skippedDepth > 0) {
+      if (unit.kind === 'open') skippedDepth++;
+      else if (unit.kind === 'close') skippedDepth--;
+      if (!isHeader(unit)) continue;
+      skippedDepth = 0;
+    }
     if (unit.kind !== 'statement') {
       const brace = unit.token;
       if (unit.kind === 'open') {
@@ -979,6 +992,7 @@ function parseInto(
           brace.startOffset,
           tokenEnd(brace),
         );
+        if (!block) skippedDepth = 1;
       } else if (block) {
         closeBlock(tokenEnd(brace));
       } else {
@@ -1005,6 +1019,17 @@ function parseInto(
         report('syntax/missing-token', `expected \`{\` after the ${first.image} header`, tokenEnd(last), tokenEnd(last));
       }
       block = { decl, open, header: first, lastEnd: open ? tokenEnd(open) : statement.end };
+      continue;
+    }
+    if (!block && units[index + 1]?.kind === 'open') {
+      report(
+        'syntax/unknown-block',
+        `unknown block ${describeToken(first)}: a block starts with \`plant <name>\` or \`controller <name> for <plant>\``,
+        statement.start,
+        statement.end,
+      );
+      index++;
+      skippedDepth = 1;
       continue;
     }
     if (!block) {
