@@ -80,3 +80,15 @@ describe('32-bit rounding check', () => {
     expect(check.flagged.some((move) => move.leftStabilityRegion)).toBe(true);
   });
 });
+
+describe('32-bit rounding check of an observer', () => {
+  it('checks eig(A − LC) through the transpose and agrees with the double-precision poles', async () => {
+    const { float32ObserverCheck } = await import('../../server/src/control/float32Check');
+    const check = float32ObserverCheck([[0, 1], [-2, -3]], [[1, 0]], [[7], [10]], 'continuous');
+    // A − LC = [[−7, 1], [−12, −3]]: s² + 10s + 33 = 0, s = −5 ± 2√2 j.
+    expect(check.ok).toBe(true);
+    const pole = check.doublePoles.find((p) => p.im > 0)!;
+    expect(pole.re).toBeCloseTo(-5, 12);
+    expect(pole.im).toBeCloseTo(2 * Math.SQRT2, 12);
+  });
+});

@@ -8,8 +8,7 @@
 // The controller alone, from y to u, is also returned (u = Cc xc + Dc y): margins.ts breaks the
 // loop at the plant input with it.
 import type { Complex, Rows } from '../numeric/types';
-import { solveLinear } from '../numeric';
-import { eigenvaluesOf } from './controlLinearAlgebra';
+import { eigenvalues, solveLinear } from '../numeric';
 
 export interface StateSpace {
   A: Rows;
@@ -62,7 +61,7 @@ export function combinedClosedLoop(
   const m = K.length;
   const p = C.length;
   const BK = multiply(B, K);
-  const controllerPoles = eigenvaluesOf(subtract(A, BK));
+  const controllerPoles = eigenvalues(subtract(A, BK));
   if (domain === 'continuous' || form === 'predictor') {
     const LC = multiply(L, C);
     const composite = blocks(A, negate(BK), LC, subtract(subtract(A, BK), LC));
@@ -77,8 +76,8 @@ export function combinedClosedLoop(
     return {
       A: composite,
       controllerPoles,
-      observerPoles: eigenvaluesOf(subtract(A, LC)),
-      combinedPoles: eigenvaluesOf(composite),
+      observerPoles: eigenvalues(subtract(A, LC)),
+      combinedPoles: eigenvalues(composite),
       controller,
     };
   }
@@ -109,8 +108,8 @@ export function combinedClosedLoop(
   return {
     A: composite,
     controllerPoles,
-    observerPoles: eigenvaluesOf(subtract(A, multiply(A, MC))),
-    combinedPoles: eigenvaluesOf(composite),
+    observerPoles: eigenvalues(subtract(A, multiply(A, MC))),
+    combinedPoles: eigenvalues(composite),
     controller,
   };
 }

@@ -7,7 +7,7 @@
 // sensitivity is ~1/√ε₃₂ and the design is fragile in single precision. A pole that leaves the
 // stability region (|z| ≥ 1, Re s ≥ 0) is always reported.
 import type { Complex, Rows } from '../numeric/types';
-import { eigenvaluesOf } from './controlLinearAlgebra';
+import { eigenvalues } from '../numeric';
 
 export const FLOAT32_EPSILON = 2 ** -23;
 
@@ -83,8 +83,8 @@ export function float32ClosedLoopCheck(A: Rows, B: Rows, K: Rows, domain: 'conti
   const n = A.length;
   const doubleLoop = closedLoopDouble(A, B, K);
   const singleLoop = closedLoopSingle(A, B, K);
-  const doublePoles = eigenvaluesOf(doubleLoop);
-  const singlePoles = eigenvaluesOf(singleLoop);
+  const doublePoles = eigenvalues(doubleLoop);
+  const singlePoles = eigenvalues(singleLoop);
   let normA = 0;
   for (const row of doubleLoop) normA = Math.max(normA, row.reduce((sum, value) => sum + Math.abs(value), 0));
   const floor = Math.max(normA, Number.MIN_VALUE) * Number.EPSILON * Math.max(1, n);
@@ -100,4 +100,10 @@ export function float32ClosedLoopCheck(A: Rows, B: Rows, K: Rows, domain: 'conti
     if (!(relativeMove <= bound) || leftStabilityRegion) flagged.push({ double: pole, single, relativeMove, leftStabilityRegion });
   });
   return { ok: flagged.length === 0, bound, largestRelativeMove, flagged, doublePoles, singlePoles };
+}
+
+/** The observer error matrix A − LC in single precision, through the transpose Aᵀ − Cᵀ Lᵀ. */
+export function float32ObserverCheck(A: Rows, C: Rows, L: Rows, domain: 'continuous' | 'discrete'): Float32Check {
+  const transpose = (M: Rows): Rows => (M.length === 0 ? [] : M[0].map((_, j) => M.map((row) => row[j])));
+  return float32ClosedLoopCheck(transpose(A), transpose(C), transpose(L), domain);
 }

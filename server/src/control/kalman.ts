@@ -10,8 +10,7 @@
 //   The dual of "stabilisable" is "(A, C) detectable"; the dual of "detectable on the boundary" is
 //   "every boundary mode excited by the process noise".
 import type { Complex, Rows } from '../numeric/types';
-import { solveLinear } from '../numeric';
-import { eigenvaluesOf } from './controlLinearAlgebra';
+import { eigenvalues, solveLinear } from '../numeric';
 import { designLqr } from './lqr';
 import { checkPositiveSemidefinite } from './weightChecks';
 
@@ -127,7 +126,7 @@ export function steadyStateKalmanGain(problem: KalmanProblem): KalmanResult {
     gain = form === 'current' ? currentGain : predictorGain;
   }
   const LpC = multiply(dualGainTransposed, C);
-  const observerPoles = eigenvaluesOf(A.map((row, i) => row.map((value, j) => value - LpC[i][j])));
+  const observerPoles = eigenvalues(A.map((row, i) => row.map((value, j) => value - LpC[i][j])));
   return {
     ok: true,
     form,

@@ -12,9 +12,8 @@
 // has gain margin [½, ∞) and phase margin ≥ 60° (Safonov & Athans 1977, from the return
 // difference inequality). Nowhere else (discrete, cross weights, observers) do they hold; there
 // the engine computes the actual margins (margins.ts).
-import { solveContinuousRiccati, solveDiscreteRiccati, solveLinear } from '../numeric';
+import { eigenvalues, solveContinuousRiccati, solveDiscreteRiccati, solveLinear } from '../numeric';
 import type { Complex, Rows } from '../numeric/types';
-import { eigenvaluesOf } from './controlLinearAlgebra';
 import { analyzeControllability, analyzeObservability, classifyEigenvalue, eigenvalueTolerance } from './structure';
 import { checkPositiveDefinite, checkPositiveSemidefinite } from './weightChecks';
 
@@ -151,7 +150,7 @@ export function designLqr(
     K = solveLinear(H, rhs).X;
   }
   const BK = multiply(B, K);
-  const closedLoopPoles = eigenvaluesOf(A.map((row, i) => row.map((value, j) => value - BK[i][j])));
+  const closedLoopPoles = eigenvalues(A.map((row, i) => row.map((value, j) => value - BK[i][j])));
   const tolerance = eigenvalueTolerance(A, domain);
   const stable = closedLoopPoles.every((pole) => classifyEigenvalue(pole, domain, tolerance) === 'stable');
   if (!stable) {

@@ -21,8 +21,7 @@
 // is refined by bisection on log ω (at most 60 steps), the sensitivity peak by golden-section
 // search (at most 60 steps).
 import type { Complex, ComplexRows, Rows } from '../numeric/types';
-import { solveComplexLinear, solveLinear } from '../numeric';
-import { eigenvaluesOf } from './controlLinearAlgebra';
+import { eigenvalues, solveComplexLinear, solveLinear } from '../numeric';
 import type { StateSpace } from './combinedClosedLoop';
 import { frequencyPoint, logarithmicGrid, transferEvaluator } from './frequencyResponse';
 
@@ -124,7 +123,7 @@ function stableIn(poles: Complex[], domain: 'continuous' | 'discrete'): boolean 
 }
 
 function frequencyGrid(loop: StateSpace, closedPoles: Complex[], domain: 'continuous' | 'discrete', T: number): number[] {
-  const openPoles = eigenvaluesOf(loop.A);
+  const openPoles = eigenvalues(loop.A);
   const corners: { frequency: number; damping: number }[] = [];
   for (const pole of [...openPoles, ...closedPoles]) {
     const s = domain === 'continuous' ? pole : { re: Math.log(Math.hypot(pole.re, pole.im)) / T, im: Math.atan2(pole.im, pole.re) / T };
@@ -199,7 +198,7 @@ function goldenMax(f: (omega: number) => number, low: number, high: number): { o
 
 export function loopMargins(loop: StateSpace, domain: 'continuous' | 'discrete', T = 1): LoopMarginsResult {
   const m = loop.D.length;
-  const closedPoles = eigenvaluesOf(closedLoopMatrix(loop));
+  const closedPoles = eigenvalues(closedLoopMatrix(loop));
   const closedLoopStable = stableIn(closedPoles, domain);
   const grid = frequencyGrid(loop, closedPoles, domain, T);
   const rootEps = Math.sqrt(Number.EPSILON);

@@ -26,8 +26,7 @@
 // downsampled to at most `maxReturnedPoints` (default 500); metrics use the full grid.
 import type { Complex, Rows } from '../numeric/types';
 import type { NonlinearModel } from '../model/types';
-import { matrixExponentialIntegral, solveLinear } from '../numeric';
-import { eigenvaluesOf } from './controlLinearAlgebra';
+import { eigenvalues, matrixExponentialIntegral, solveLinear } from '../numeric';
 import { computeStepMetrics, type InputLimit, type StepMetrics } from './stepMetrics';
 
 export interface StepResponseProblem {
@@ -259,7 +258,7 @@ export function simulateStepResponses(problem: StepResponseProblem): StepRespons
   if (domain === 'discrete' && !(T > 0)) return empty('no-sample-period');
 
   const loop = buildClosedLoop(problem, T);
-  const closedLoopPoles = eigenvaluesOf(loop.Acl);
+  const closedLoopPoles = eigenvalues(loop.Acl);
   const closedLoopStable = closedLoopPoles.every((pole) =>
     domain === 'continuous' ? pole.re < 0 : Math.hypot(pole.re, pole.im) < 1,
   );
@@ -511,7 +510,7 @@ export function simulateStepResponses(problem: StepResponseProblem): StepRespons
           overshootWithPercent: withClamp.overshootPercent,
           settlingWithout: without.settlingTime,
           settlingWith: withClamp.settlingTime,
-          // "Noticeably": 5 percentage points of overshoot or 10 % of the settling time (common practice).
+          // "Noticeably" (our thresholds): 5 percentage points of overshoot or 10 % of the settling time.
           windupSignificant:
             overshootGain > 5 || settlingGain > 0.1 * (withClamp.settlingTime ?? without.settlingTime ?? Infinity),
         };
