@@ -27,3 +27,24 @@ describe('inline diagnostic markers', () => {
     expect(unmatchedMarkers([marker], [{ range: at(10, 11), message: 'something else' }])).toEqual([marker]);
   });
 });
+
+describe('tree invariant checker', () => {
+  it('flags a node whose range disagrees with its offsets, and a diagnostic outside the text', async () => {
+    const { parsePlantText } = await import('../../grammar/src/index');
+    const { checkTreeInvariants } = await import('./invariants');
+    const text = 'plant p {\n  param a = 1\n}\n';
+    const result = parsePlantText(text);
+    expect(checkTreeInvariants(text, result)).toEqual([]);
+    const plant = result.document.declarations[0];
+    plant.name.range = { start: { line: 0, character: 7 }, end: { line: 0, character: 8 } };
+    result.diagnostics.push({
+      severity: 'error',
+      code: 'syntax/test',
+      message: 'outside',
+      range: { start: { line: 9, character: 0 }, end: { line: 9, character: 1 } },
+    });
+    const problems = checkTreeInvariants(text, result);
+    expect(problems.some((p) => p.includes('range does not match'))).toBe(true);
+    expect(problems.some((p) => p.includes('outside the document'))).toBe(true);
+  });
+});
