@@ -182,3 +182,14 @@ describe('discrete controller on a nonlinear plant, and the spec pipeline', () =
     expect(checkSpec(metrics, { overshootPercent: 5 })).toHaveLength(1);
   });
 });
+
+describe('unstable loops', () => {
+  it('stops an unstable response after six growth time constants, finite throughout', () => {
+    const result = simulateStepResponses({
+      domain: 'continuous', A: [[2, 0], [0, -0.01]], B: [[1], [1]], C: [[1, 1]], D: [[0]], K: [[0, 0]], prescaler: [[1]], tracked: [0], points: 500,
+    });
+    expect(result.closedLoopStable).toBe(false);
+    expect(result.duration).toBeCloseTo(3, 12);
+    expect(result.experiments[0].linear.outputs[0].every(Number.isFinite)).toBe(true);
+  });
+});

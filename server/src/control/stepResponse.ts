@@ -22,7 +22,8 @@
 //    and the plant integrated with `substeps` RK4 steps per sample). Signals are returned as
 //    deviations from the operating point, comparable with the linear run.
 // Grid: duration ≈ 6 slowest closed-loop time constants (6/min(−Re λ)), capped at 10⁴ fastest
-// time constants (flagged `truncated`); settings.simulationPoints points. Returned signals are
+// time constants (flagged `truncated`), and for unstable loops at 6 growth time constants of
+// the fastest growing mode; settings.simulationPoints points. Returned signals are
 // downsampled to at most `maxReturnedPoints` (default 500); metrics use the full grid.
 import type { Complex, Rows } from '../numeric/types';
 import type { NonlinearModel } from '../model/types';
@@ -206,6 +207,10 @@ function chooseGrid(
   const allDecay = decays.every((d) => d > 0);
   const slowestDecay = allDecay ? Math.min(...decays) : slowestMagnitude;
   let duration = 6 / (Number.isFinite(slowestDecay) && slowestDecay > 0 ? slowestDecay : fastest);
+  // Unstable loops: stop once the fastest growing mode has grown by e⁶ (≈ 400×), so the record
+  // shows the divergence without overflowing.
+  const growth = Math.max(0, ...decays.filter((d) => Number.isFinite(d)).map((d) => -d));
+  if (growth > 0) duration = Math.min(duration, 6 / growth);
   const cap = 6e4 / fastest;
   let truncated = false;
   if (duration > cap) {
