@@ -19,6 +19,7 @@ import {
   signatureHelp,
 } from '../../server/src/ide/index';
 import type { Diagnostic } from '../../server/src/model/types';
+import { seededRandom } from '../lsp/soak';
 import { apply, cursor, HOIST } from './markers';
 
 const labels = (marked: string) => {
@@ -181,6 +182,21 @@ describe('formatting', () => {
     expect(formatText(once)).toBe(once);
     const strip = (t: string) => t.replace(/\s+/g, '');
     expect(strip(once)).toBe(strip(text));
+  });
+
+  it('is idempotent on broken text too (seeded random edits of the samples)', () => {
+    const alphabet = "abxyzJKQR0123456789.,;=+-*/^'()[]{}#jis \n";
+    for (const [index, name] of files.entries()) {
+      const random = seededRandom(500 + index);
+      let text = readFileSync(join(samples, name), 'utf8');
+      for (let i = 0; i < 100; i++) {
+        const offset = Math.floor(random() * (text.length + 1));
+        if (random() < 0.55) text = text.slice(0, offset) + alphabet[Math.floor(random() * alphabet.length)] + text.slice(offset);
+        else text = text.slice(0, offset) + text.slice(offset + 1 + Math.floor(random() * 3));
+        const once = formatText(text);
+        expect(formatText(once), `${name} after ${i + 1} edits`).toBe(once);
+      }
+    }
   });
 
   it('aligns matrix columns under the first entry and indents blocks', () => {
