@@ -22,7 +22,9 @@ export function editDistance(a: string, b: string): number {
 
 /**
  * The closest candidate, if it is close enough to be a plausible typo: at most a third of the
- * longer name's letters differ (at least one edit allowed), case differences count half.
+ * longer name's letters differ (at least one edit allowed), case differences count half. Names
+ * of one or two letters only match up to case: any other one-letter name is one edit away,
+ * which says nothing.
  */
 export function suggestName(name: string, candidates: Iterable<string>): string | undefined {
   let best: string | undefined;
@@ -32,7 +34,8 @@ export function suggestName(name: string, candidates: Iterable<string>): string 
     const exact = editDistance(name, candidate);
     const folded = editDistance(name.toLowerCase(), candidate.toLowerCase());
     const score = Math.min(exact, folded + 0.5);
-    const allowed = Math.max(1, Math.floor(Math.max(name.length, candidate.length) / 3));
+    const longer = Math.max(name.length, candidate.length);
+    const allowed = longer <= 2 ? 0.5 : Math.max(1, Math.floor(longer / 3));
     if (score <= allowed && score < bestScore) {
       best = candidate;
       bestScore = score;
