@@ -1,5 +1,5 @@
 // Public face of the grammar layer: parser, token list, name lists and the syntax-tree types.
-export { parsePlantText, MAX_EXPRESSION_DEPTH } from './parser';
+export { parsePlantText, MAX_EXPRESSION_DEPTH, type ParseOptions } from './parser';
 export { MAX_NESTING } from './statements';
 export {
   allTokens,
@@ -10,6 +10,8 @@ export {
   FUNCTION_NAMES,
   CONSTANT_NAMES,
   TOKEN_SCOPES,
+  keywordTokens,
+  isKeywordToken,
   type Keyword,
 } from './tokens';
 export { LineIndex } from './positions';
