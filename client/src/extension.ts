@@ -16,6 +16,7 @@ import {
 } from 'vscode-languageclient/node';
 import { registerCommands } from './commands';
 import { ResponsePanels } from './panel/responsePanel';
+import { RestartBudget } from './restartBudget';
 import {
   AnalysisUpdatedNotification,
   ControllerDataRequest,
@@ -26,15 +27,10 @@ import {
 
 let client: LanguageClient | undefined;
 
-/** Restart policy after the server process ends unexpectedly: at most `limit` restarts in `windowMs`. */
+/** Restart policy after the server process ends unexpectedly (see RestartBudget). */
 export class RestartPolicy implements ErrorHandler {
-  private restarts: number[] = [];
-  constructor(
-    private readonly output: vscode.OutputChannel,
-    private readonly limit = 4,
-    private readonly windowMs = 3 * 60_000,
-    private readonly now: () => number = Date.now,
-  ) {}
+  private readonly budget = new RestartBudget();
+  constructor(private readonly output: vscode.OutputChannel) {}
 
   error(_error: Error, _message: unknown, count: number | undefined): ErrorHandlerResult {
     // Transport errors: keep going unless the connection keeps failing.
@@ -42,20 +38,18 @@ export class RestartPolicy implements ErrorHandler {
   }
 
   closed(): CloseHandlerResult {
-    const time = this.now();
-    this.restarts = this.restarts.filter((t) => time - t < this.windowMs);
-    if (this.restarts.length >= this.limit) {
-      const message = `The Loopwright language server stopped ${this.limit + 1} times in ${this.windowMs / 60_000} minutes and was not restarted. Run “Loopwright: Restart Language Server” after fixing the cause (see the Loopwright output).`;
+    if (!this.budget.allowRestart(Date.now())) {
+      const minutes = this.budget.windowMs / 60_000;
+      const message = `The Loopwright language server stopped ${this.budget.limit + 1} times in ${minutes} minutes and was not restarted. Run “Loopwright: Restart Language Server” after fixing the cause (see the Loopwright output).`;
       return { action: CloseAction.DoNotRestart, message };
     }
-    this.restarts.push(time);
-    this.output.appendLine(`[client] language server stopped unexpectedly; restarting (${this.restarts.length}/${this.limit}).`);
+    this.output.appendLine(`[client] language server stopped unexpectedly; restarting (${this.budget.used}/${this.budget.limit}).`);
     return { action: CloseAction.Restart, handled: true };
   }
 
   /** Called on a deliberate restart, so earlier crashes do not count against the user's fresh start. */
   reset(): void {
-    this.restarts = [];
+    this.budget.reset();
   }
 }
 

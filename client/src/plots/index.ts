@@ -75,7 +75,7 @@ export function renderControllerPlots(container: HTMLElement, data: PlotData, th
       outputs.push({ label: 'set-point', values: step.time.map(() => step.metrics.setpoint), dash: [1, 4], colour: theme.muted });
     }
     const section = addSection(`Step response: ${step.steppedOutput}`, 'outputs');
-    panels.push(linePanel(section, step.time, outputs, { x: 'time (s)', y: 'output' }, theme, syncKey));
+    panels.push(linePanel(section, step.time, outputs, { x: 'time (s)', y: step.outputs.map((o) => o.name).join(', ') || 'output' }, theme, syncKey));
 
     const inputs: Series[] = step.inputs.map((s) => ({ label: s.name, values: s.values }));
     for (const [variant, dash] of [['saturated', [6, 4]], ['antiWindup', [2, 3]], ['nonlinear', [10, 3, 2, 3]]] as const) {
@@ -86,11 +86,11 @@ export function renderControllerPlots(container: HTMLElement, data: PlotData, th
     for (const s of step.inputs) {
       if (!s.limit) continue;
       const [low, high] = s.limit;
-      inputs.push({ label: `${s.name} limit`, values: step.time.map(() => high), dash: [8, 3, 1, 3], colour: theme.limit });
-      inputs.push({ label: `${s.name} limit `, values: step.time.map(() => low), dash: [8, 3, 1, 3], colour: theme.limit });
+      inputs.push({ label: `${s.name} upper limit`, values: step.time.map(() => high), dash: [8, 3, 1, 3], colour: theme.limit });
+      inputs.push({ label: `${s.name} lower limit`, values: step.time.map(() => low), dash: [8, 3, 1, 3], colour: theme.limit });
     }
     const inputSection = addSection('Control inputs', 'inputs');
-    panels.push(linePanel(inputSection, step.time, inputs, { x: 'time (s)', y: 'input' }, theme, syncKey));
+    panels.push(linePanel(inputSection, step.time, inputs, { x: 'time (s)', y: step.inputs.map((i) => i.name).join(', ') || 'input' }, theme, syncKey));
     container.append(metricsTable(step.metrics));
   } else {
     const note = document.createElement('p');
