@@ -151,3 +151,12 @@ describe('robustness', () => {
     }
   });
 });
+
+describe('diagnostic reference', () => {
+  it('renders every registered code as a table row', async () => {
+    const { renderDiagnosticReference } = await import('../../server/src/model/diagnostics/reference');
+    const markdown = renderDiagnosticReference([{ title: 'Model', kinds: modelDiagnosticKinds }]);
+    for (const kind of modelDiagnosticKinds) expect(markdown).toContain(`| \`${kind.code}\` | ${kind.severity} |`);
+    expect(markdown.split('\n').filter((line) => line.startsWith('| `model/')).length).toBe(modelDiagnosticKinds.length);
+  });
+});
