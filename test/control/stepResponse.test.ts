@@ -193,3 +193,31 @@ describe('unstable loops', () => {
     expect(result.experiments[0].linear.outputs[0].every(Number.isFinite)).toBe(true);
   });
 });
+
+describe('discrete saturation and nonlinear divergence', () => {
+  it('clamps a discrete integrator while the input is saturated (ξ[k+1] = ξ[k] + T(r − y))', () => {
+    // Sampled 1/(s + 1) at T = 0.1: Φ = e^{−0.1}, Γ = 1 − e^{−0.1}.
+    const T = 0.1;
+    const result = simulateStepResponses({
+      domain: 'discrete', samplePeriod: T,
+      A: [[Math.exp(-T)]], B: [[1 - Math.exp(-T)]], C: [[1]], D: [[0]],
+      K: [[1]], tracked: [0], integral: { outputs: [0], Ki: [[-4]] },
+      limits: [{ low: -1.2, high: 1.2 }], points: 400,
+    });
+    const experiment = result.experiments[0];
+    expect(experiment.saturated!.inputs[0].every((u) => u <= 1.2 && u >= -1.2)).toBe(true);
+    expect(experiment.antiWindup!.metrics.overshootPercent as number).toBeLessThan(experiment.saturated!.metrics.overshootPercent as number);
+  });
+
+  it('reports when the nonlinear plant diverges (x′ = x² escapes in finite time) and stays finite', () => {
+    const model = { derivatives: (x: number[], u: number[]) => [x[0] * x[0] + u[0]], outputs: (x: number[]) => [x[0]] };
+    const result = simulateStepResponses({
+      domain: 'continuous', A: [[0]], B: [[1]], C: [[1]], D: [[0]], K: [[0.1]], prescaler: [[50]], tracked: [0],
+      points: 2000, duration: 200, stepSizes: [1],
+      nonlinear: { model, states: [0], inputs: [0], disturbances: [], outputs: [0] },
+    });
+    const run = result.experiments[0].nonlinear!;
+    expect(run.divergedAt).not.toBeNull();
+    expect(run.outputs[0].every(Number.isFinite)).toBe(true);
+  });
+});
