@@ -289,3 +289,20 @@ plant dolly {
     ]);
   });
 });
+
+describe('disturbances in equations', () => {
+  it('give E = ∂f/∂w and F = ∂g/∂w at the operating point', () => {
+    const doc = check(
+      "plant p {\n  states x\n  inputs u\n  disturbances w\n  outputs y\n  x' = -x + w*u\n  output y = x + w^2\n  around x = 6, u = 2, w = 3\n}\n",
+    );
+    expect(problems(doc)).toEqual([]);
+    const plant = plantOf(doc, 'p');
+    expect(plant.A).toEqual([[-1]]);
+    expect(plant.B).toEqual([[3]]);
+    expect(plant.E).toEqual([[2]]);
+    expect(plant.C).toEqual([[1]]);
+    expect(plant.D).toEqual([[0]]);
+    expect(plant.F).toEqual([[6]]);
+    expect(plant.operatingPoint).toMatchObject({ states: [6], inputs: [2], disturbances: [3], outputs: [15], drift: [0], isEquilibrium: true });
+  });
+});
