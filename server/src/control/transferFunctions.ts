@@ -54,3 +54,8 @@ export function transferFunctions(A: Rows, B: Rows, C: Rows, D: Rows): TransferF
   }
   return { method: 'characteristic-polynomial-difference', pairs };
 }
+
+/** The per-pair list alone (what the plant report shows). */
+export function transferFunctionsOf(A: Rows, B: Rows, C: Rows, D: Rows): TransferFunctionPair[] {
+  return transferFunctions(A, B, C, D).pairs;
+}
