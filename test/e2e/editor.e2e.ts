@@ -3,7 +3,7 @@
 // Expected numbers are worked out by hand in the comments beside each check.
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { repoRoot, startEditor, type Editor } from './harness';
 
 // The hoist sample with the torque constant misspelt in B: an unknown name the server must flag.
@@ -19,6 +19,13 @@ describe('Loopwright in a real editor', () => {
   beforeAll(async () => {
     expect(faultyHoist).not.toBe(hoistText); // the sample still has the line this scenario edits
     editor = await startEditor({ files: { 'faulty-hoist.plant': faultyHoist } });
+  });
+
+  afterEach(async (context) => {
+    // Keep a picture of the editor at the moment a check failed (CI artefact).
+    if (editor && context.task.result?.state === 'fail') {
+      await editor.screenshot(`failed-${context.task.name.replace(/[^a-z0-9]+/gi, '-').slice(0, 60)}`).catch(() => undefined);
+    }
   });
 
   afterAll(async () => {
@@ -91,36 +98,38 @@ describe('Loopwright in a real editor', () => {
     await editor.openFile('dosing-tank.plant');
     const page = editor.page;
     await page.locator('.editor-instance .squiggly-warning').first().waitFor({ timeout: 60_000 });
-    await page.keyboard.press('Control+Shift+M');
-    const rows = page.locator('.markers-panel .monaco-list-row', { hasText: /./ });
-    await rows.first().waitFor();
-    // Try each problem of this file until one offers the integral-action fix.
+    await editor.goTo(1, 1);
+    // Walk the problems with "Go to Next Problem" (F8) until one offers the integral-action fix.
     let appliedFor: string | null = null;
-    const count = await rows.count();
-    for (let index = 0; index < count && appliedFor === null; index++) {
-      const row = rows.nth(index);
-      const message = (await row.innerText()).trim();
-      if (!/dosing-tank|level|prescal|track|integral|exact|settle/i.test(message)) continue;
-      await row.click();
+    const seen = new Set<string>();
+    for (let attempt = 0; attempt < 8 && appliedFor === null; attempt++) {
+      await page.keyboard.press('F8');
+      const widget = page.locator('.marker-widget');
+      await widget.waitFor({ state: 'visible' });
+      const message = (await widget.locator('.message').first().innerText()).split('\n')[0].trim();
+      if (seen.has(message)) break; // went round once
+      seen.add(message);
       await page.keyboard.press('Escape');
-      await page.locator('.editor-instance .monaco-editor.focused').first().waitFor();
+      await widget.waitFor({ state: 'hidden' });
       await page.keyboard.press('Control+.');
       const menu = page.locator('.action-widget');
       await menu.waitFor({ state: 'visible' });
-      const fix = menu.locator('.action-widget-action-list .monaco-list-row', { hasText: /integral/i }).first();
-      if (await fix.count()) {
+      const fix = menu.locator('.monaco-list-row', { hasText: /integral/i }).first();
+      if ((await fix.count()) > 0) {
         await fix.click();
-        appliedFor = message.split('\n')[0];
+        appliedFor = message;
       } else {
         await page.keyboard.press('Escape');
+        await menu.waitFor({ state: 'hidden' });
       }
     }
-    expect(appliedFor, 'a problem in dosing-tank.plant offers the integral-action quick fix').not.toBeNull();
+    expect(appliedFor, `a problem in dosing-tank.plant offers the integral-action fix (problems seen: ${[...seen].join(' | ')})`).not.toBeNull();
     await editor.line('integral level_sensor').waitFor();
     // The warning the fix was applied for is gone once the server re-analysed the edited text.
-    await expect
-      .poll(async () => (await rows.allInnerTexts()).map((t) => t.split('\n')[0]).includes(appliedFor!), { timeout: 60_000 })
-      .toBe(false);
+    await page.keyboard.press('Control+Shift+M');
+    const panel = page.locator('.markers-panel');
+    await panel.waitFor();
+    await expect.poll(async () => (await panel.innerText()).includes(appliedFor!), { timeout: 60_000 }).toBe(false);
     await editor.screenshot('quick-fix');
   });
 
