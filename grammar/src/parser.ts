@@ -94,11 +94,17 @@ class PlantParser extends EmbeddedActionsParser {
     return this.outerSpans.get(e)?.end ?? e.endOffset;
   }
 
-  report(code: string, message: string, startOffset: number, endOffset: number): void {
+  report(
+    code: string,
+    message: string,
+    startOffset: number,
+    endOffset: number,
+    severity: 'error' | 'warning' = 'error',
+  ): void {
     // One diagnostic per offending token: later complaints about the same token add nothing.
     if (startOffset !== endOffset && this.blamed.has(startOffset)) return;
     this.diagnostics.push({
-      severity: 'error',
+      severity,
       code,
       message,
       range: this.lines.range(startOffset, endOffset),
@@ -260,6 +266,17 @@ class PlantParser extends EmbeddedActionsParser {
     });
     return this.ACTION(() => {
       if (links.length === 0) return base;
+      if (base.kind === 'number' && base.unit) {
+        // `2 s^2` reads as (2 s)^2 = 4 s^2, rarely what was meant.
+        const unit = base.unit.name;
+        this.report(
+          'syntax/unit-power',
+          `\`${base.text} ${unit}^…\` raises the whole \`${base.text} ${unit}\` to the power; write \`${base.text}*${unit}^…\` if only \`${unit}\` is meant`,
+          base.startOffset,
+          base.endOffset,
+          'warning',
+        );
+      }
       // Fold from the right: p0 ^ s1(p1 ^ s2(p2 ...)).
       let exponent: Expr | undefined;
       for (let i = links.length - 1; i >= 0; i--) {

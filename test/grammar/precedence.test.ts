@@ -96,3 +96,16 @@ describe('literals', () => {
     ]);
   });
 });
+
+describe('a unit followed by a power', () => {
+  it('keeps (2 s)^2 as written and warns that only s may have been meant', () => {
+    const result = parsePlantText('plant p {\n  transfer = 1 / (2 s^2 + 1)\n}\n');
+    const item = (result.document.declarations[0] as PlantDecl).items[0];
+    if (item.kind !== 'transfer') throw new Error('expected transfer');
+    expect(show(item.value)).toBe('(1 / ((2[s] ^ 2) + 1))');
+    expect(result.diagnostics.map((d) => [d.severity, d.code, d.range.start.character, d.range.end.character])).toEqual([
+      ['warning', 'syntax/unit-power', 18, 21],
+    ]);
+    expect(result.diagnostics[0].message).toContain('2*s^');
+  });
+});
