@@ -112,3 +112,38 @@ describe('fragility and disturbance rejection (acceptance: prescaler drifts, int
     expect(result.worstIntegralError).toBeNull();
   });
 });
+
+import { matrixExponentialIntegral } from '../../server/src/numeric';
+
+describe('discrete domain (zero-order hold of the thermal chamber, T = 0.5 s)', () => {
+  const T = 0.5;
+  const sampled = (p: number[]): PlantMatrices & { F: number[][] } => {
+    const plant = chamber(p);
+    const { Phi, Gamma } = matrixExponentialIntegral(plant.A, plant.B.map((row, i) => [...row, ...plant.E[i]]), T);
+    return { ...plant, A: Phi, B: Gamma.map((row) => [row[0]]), E: Gamma.map((row) => [row[1]]) };
+  };
+  const plant = sampled(nominal);
+  const zPoles = (...s: number[]) => s.map((value) => ({ re: Math.exp(value * T), im: 0 }));
+
+  it('integral action in z: ±10 % parameters leave ≈ 0 error, the prescaler does not; disturbances likewise', () => {
+    const K = placePoles(plant.A, plant.B, zPoles(-0.5, -0.6), defaultSettings).K;
+    const N = setpointGains(plant.A, plant.B, plant.C, plant.D, [0], K, 'discrete').prescaler!;
+    const integral = designIntegralAction(plant.A, plant.B, plant.C, plant.D, [0], zPoles(-0.5, -0.6, -0.4), 'discrete', defaultSettings, T);
+    expect(integral.ok).toBe(true);
+    const input = { Kx: integral.Kx, Ki: integral.Ki, outputs: [0] };
+    const result = analyzeFragility({ rebuild: sampled, nominal, K, N, trackedOutputs: [0], percent: 10, domain: 'discrete', samplePeriod: T, integral: input });
+    expect(result.nominal.trackingError).toBeLessThan(1e-12);
+    expect(result.worstTrackingError).toBeGreaterThan(0.02);
+    expect(result.worstIntegralError).toBeLessThan(1e-12);
+    const disturbance = disturbanceRejection(plant, K, [0], 'discrete', input, T);
+    expect(disturbance.worstPrescalerError!).toBeGreaterThan(0.1);
+    expect(disturbance.worstIntegralError!).toBeLessThan(1e-12);
+  });
+
+  it('a discrete plant with a zero at z = 1 (first difference y[k] = x[k] − x[k−1] style) is zero-at-dc', () => {
+    // x[k+1] = 0.5·x[k] + u[k], y = −0.5·x + u: G(z) = 1 − 0.5/(z − 0.5) = (z − 1)/(z − 0.5).
+    const result = setpointGains([[0.5]], [[1]], [[-0.5]], [[1]], [0], [[0.2]], 'discrete');
+    expect(result.feasibility).toBe('zero-at-dc');
+    expect(integralActionFeasibility([[0.5]], [[1]], [[-0.5]], [[1]], [0], 'discrete').reason).toBe('zero-at-dc');
+  });
+});
