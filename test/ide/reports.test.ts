@@ -104,7 +104,7 @@ describe('rendering engine records', () => {
       'poles -4 + 3j, -4 - 3j',
       'step height: rise 0.426 s, settling 1.12 s, overshoot 1.52 %',
     ]);
-    expect(lenses.map((lens) => lens.command)).toEqual(['loopwright.copyGains', 'loopwright.exportGains', 'loopwright.copyGains', 'loopwright.showResponse']);
+    expect(lenses.map((lens) => lens.command)).toEqual(['loopwright.copyGains', 'loopwright.exportGains', 'loopwright.showResponse', 'loopwright.showResponse']);
     expect(lenses.every((lens) => lens.range.start.line === 16 && JSON.stringify(lens.arguments) === '[{"controller":"lift"}]')).toBe(true);
   });
 

@@ -94,7 +94,9 @@ export class LspSession {
         }
       }
     });
-    this.connection.onNotification('window/logMessage', (params: { message: string }) => this.stderr.push(params.message));
+    this.connection.onNotification('window/logMessage', (params: { message: string }) => {
+      this.stderr.push(params.message);
+    });
     this.connection.onRequest('workspace/configuration', (params: { items: unknown[] }) => params.items.map(() => this.configuration));
     this.connection.onRequest('workspace/codeLens/refresh', () => null);
     this.connection.onRequest('workspace/inlayHint/refresh', () => null);

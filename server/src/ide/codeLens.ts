@@ -60,7 +60,7 @@ export function codeLenses(view: AnalysisView, settings: LensSettings = defaultL
       lenses.push({
         range,
         title: clip(`poles ${report.closedLoopPoles.map((pole) => formatComplex(pole, 4)).join(', ')}`),
-        command: 'loopwright.copyGains',
+        command: 'loopwright.showResponse',
         arguments: [argument],
       });
     }

@@ -13,6 +13,7 @@ import {
   controllerReportAt,
   pendingNote,
   plantReportAt,
+  staleNote,
   type AnalysisView,
 } from './view';
 
@@ -118,7 +119,7 @@ function plantHover(view: AnalysisView, definition: Definition): string {
     return parts.join('\n\n');
   }
   parts.push(plantReportMarkdown(report));
-  return parts.join('\n\n');
+  return parts.join('\n\n') + staleNote(view);
 }
 
 export function plantReportMarkdown(report: PlantReport): string {
@@ -310,7 +311,7 @@ function controllerHover(view: AnalysisView, definition: Definition): string {
   const report = controllerIndex >= 0 ? controllerReportAt(view, controllerIndex) : undefined;
   if (!report) return `${header}\n\n${pendingNote(view)}`;
   if (!report.designed) return `${header}\n\nNot designed (see the diagnostics).`;
-  return `${header}\n\n${controllerReportMarkdown(report)}`;
+  return `${header}\n\n${controllerReportMarkdown(report)}${staleNote(view)}`;
 }
 
 /** A typed pole (in `poles`, `integral … pole`, `observer poles`): its ωn and ζ. */

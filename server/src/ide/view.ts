@@ -6,7 +6,13 @@ import type { ControllerReport, PlantReport } from '../control/design';
 import type { Definition } from './symbolIndex';
 
 export type AnalysisView = FastCheck &
-  Partial<Pick<DocumentAnalysis, 'plants' | 'controllers' | 'settings' | 'skipped'>>;
+  Partial<Pick<DocumentAnalysis, 'plants' | 'controllers' | 'settings' | 'skipped'>> & {
+    /**
+     * True when the reports belong to an earlier version (matched by name) while the analysis
+     * of this one runs: lenses keep their figures instead of flickering; hovers say so.
+     */
+    stale?: boolean;
+  };
 
 function samePosition(a: { line: number; character: number }, b: { line: number; character: number }) {
   return a.line === b.line && a.character === b.character;
@@ -35,14 +41,14 @@ export function plantReportAt(view: AnalysisView, plantIndex: number): PlantRepo
   const plant = view.model.plants[plantIndex];
   const report = view.plants?.[plantIndex];
   if (plant && report && report.name === plant.name) return report;
-  return plant ? view.plants?.find((r) => r.name === plant.name) : undefined;
+  return plant ? view.plants?.find((r) => r?.name === plant.name) : undefined;
 }
 
 export function controllerReportAt(view: AnalysisView, controllerIndex: number): ControllerReport | undefined {
   const controller = view.model.controllers[controllerIndex];
   const report = view.controllers?.[controllerIndex];
   if (controller && report && report.name === controller.name) return report;
-  return controller ? view.controllers?.find((r) => r.name === controller.name) : undefined;
+  return controller ? view.controllers?.find((r) => r?.name === controller.name) : undefined;
 }
 
 export function checkedControllerAt(view: AnalysisView, controllerIndex: number): CheckedController | undefined {
@@ -54,4 +60,9 @@ export function pendingNote(view: AnalysisView): string {
   if (view.skipped) return `Analysis skipped: ${view.skipped.detail}.`;
   if (!view.plants) return 'Analysis in progress…';
   return 'Not analysed (the model has errors).';
+}
+
+/** A note for hovers built from an earlier version's reports. */
+export function staleNote(view: AnalysisView): string {
+  return view.stale ? '\n\n_From the previous edit; the analysis is updating._' : '';
 }

@@ -33,7 +33,7 @@ import { definitionAt, highlightsAt, referencesAt } from '../ide/navigation';
 import { prepareRename, renameAt } from '../ide/rename';
 import { semanticTokens } from '../ide/semanticTokens';
 import { signatureHelp } from '../ide/signatureHelp';
-import type { AnalysisView } from '../ide/view';
+import { controllerReportAt, type AnalysisView } from '../ide/view';
 import { AnalysisRunner } from './analysisRunner';
 import {
   fromLspDiagnostic,
@@ -72,6 +72,8 @@ interface DocumentState {
   slow: SlowResult | null;
   /** Slow-only diagnostics of the last analysed version, moved along with later edits. */
   carried: Diagnostic[];
+  /** The last slow result of any earlier version (lenses and hovers show it, marked stale). */
+  previous: SlowResult | null;
   timer: ReturnType<typeof setTimeout> | null;
   analysedVersion: number | null;
 }
@@ -106,7 +108,11 @@ export function startServer(connection: Connection, options: ServerOptions = {})
   }
 
   function viewOf(state: DocumentState): AnalysisView {
-    if (!state.slow) return state.fast;
+    if (!state.slow) {
+      if (!state.previous) return state.fast;
+      // Reports of an earlier version, looked up by name by the ide functions.
+      return { ...state.fast, plants: state.previous.plants, controllers: state.previous.controllers, settings: state.previous.settings, stale: true };
+    }
     return {
       ...state.fast,
       diagnostics: state.slow.diagnostics,
@@ -118,6 +124,7 @@ export function startServer(connection: Connection, options: ServerOptions = {})
   }
 
   function fullAnalysis(state: DocumentState): DocumentAnalysis | null {
+    if (!state.slow) return null;
     const view = viewOf(state);
     if (!view.plants || !view.controllers || !view.settings) return null;
     return view as DocumentAnalysis;
@@ -159,7 +166,15 @@ export function startServer(connection: Connection, options: ServerOptions = {})
       log(`fast check failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
       return;
     }
-    const state: DocumentState = { document, fast, slow: null, carried, timer: null, analysedVersion: null };
+    const state: DocumentState = {
+      document,
+      fast,
+      slow: null,
+      carried,
+      previous: previous ? previous.slow ?? previous.previous : null,
+      timer: null,
+      analysedVersion: null,
+    };
     documents.set(uri, state);
     publish(state, [...fast.diagnostics, ...carried].sort(byPosition));
     scheduleSlow(state);
@@ -208,6 +223,7 @@ export function startServer(connection: Connection, options: ServerOptions = {})
 
   function reanalyseAll(): void {
     for (const state of documents.values()) {
+      state.previous = state.slow ?? state.previous;
       state.slow = null;
       if (state.timer) clearTimeout(state.timer);
       runner.cancel(state.document.uri);
@@ -438,7 +454,7 @@ export function startServer(connection: Connection, options: ServerOptions = {})
         controllers: view.model.controllers.map((controller, index) => ({
           name: controller.name,
           plant: controller.plantName,
-          designed: view.controllers?.[index]?.designed ?? false,
+          designed: controllerReportAt(view, index)?.designed ?? false,
           line: controller.range.start.line,
         })),
       };
