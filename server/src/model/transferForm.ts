@@ -7,7 +7,6 @@
 import type { Expr, PlantDecl, TransferDecl } from '../../../grammar/src/ast';
 import * as Cx from './complex';
 import {
-  ambiguousPower,
   divisionByZero,
   improperTransfer,
   inferredSignals,
@@ -206,15 +205,6 @@ class RationalEvaluator {
             if (R.isZeroPolynomial(right.num)) return this.report(divisionByZero.create(expr.right.range, [printExpr(expr.right)]));
             return this.finite(expr, R.div(left, right));
           case '^': {
-            if (expr.left.kind === 'number' && expr.left.unit?.name === 's' && expr.right.kind === 'number') {
-              const written = `${expr.left.text} s^${expr.right.text}`;
-              const coefficient = Math.pow(expr.left.value, expr.right.value);
-              this.out.push(
-                ambiguousPower.create(expr.range, [written, `(${expr.left.text} s)^${expr.right.text} = ${Number(coefficient.toPrecision(6))} s^${expr.right.text}`, `${expr.left.text}*s^${expr.right.text}`], {
-                  data: { fix: 'explicit-product', replacement: `${expr.left.text}*s^${expr.right.text}` },
-                }),
-              );
-            }
             if (!R.isConstant(right)) return this.report(notRational.create(expr.right.range, ['an exponent cannot contain s; a transfer function is a ratio of polynomials']));
             const k = R.constantValue(right);
             if (R.isConstant(left)) return this.finite(expr, R.constant(Math.pow(R.constantValue(left), k)));

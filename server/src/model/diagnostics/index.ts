@@ -39,7 +39,6 @@ import { aroundDefaultInput } from './around-default-input';
 import { aroundIgnored } from './around-ignored';
 import { improperTransfer } from './improper-transfer';
 import { notRational } from './not-rational';
-import { ambiguousPower } from './ambiguous-power';
 import { transferSignals } from './transfer-signals';
 import { staticTransfer } from './static-transfer';
 import { noDesign } from './no-design';
@@ -96,7 +95,6 @@ export {
   aroundIgnored,
   improperTransfer,
   notRational,
-  ambiguousPower,
   transferSignals,
   staticTransfer,
   noDesign,
@@ -153,7 +151,6 @@ export const modelDiagnosticKinds = [
   aroundIgnored,
   improperTransfer,
   notRational,
-  ambiguousPower,
   transferSignals,
   staticTransfer,
   noDesign,
