@@ -21,7 +21,7 @@ function internalErrors(text: string): string[] {
 describe('half-typed documents', () => {
   for (const { name, text } of texts) {
     it(`every prefix of ${name}`, () => {
-      const step = name === 'clean.plant' ? 2 : 7;
+      const step = name === 'clean.plant' ? 3 : 7;
       for (let end = 0; end <= text.length; end += step) {
         const failures = internalErrors(text.slice(0, end));
         expect(failures, `prefix of ${end} characters`).toEqual([]);
