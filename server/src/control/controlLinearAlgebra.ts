@@ -5,6 +5,7 @@
 // pole placement. Kept private to control/ so the numeric layer can replace them later.
 import { EigenvalueDecomposition, Matrix, SingularValueDecomposition, LuDecomposition } from 'ml-matrix';
 import type { Complex, Rows } from '../numeric/types';
+import { eigenvaluesWithStatus } from '../numeric';
 
 export const EPS = Number.EPSILON;
 
@@ -12,13 +13,19 @@ export function sortEigenvalues(values: Complex[]): Complex[] {
   return values.slice().sort((a, b) => (a.re !== b.re ? a.re - b.re : a.im - b.im));
 }
 
+function allFinite(M: Rows): boolean {
+  return M.every((row) => row.every(Number.isFinite));
+}
+
+/**
+ * Eigenvalues sorted by real then imaginary part, from the numeric layer's balanced Hessenberg–QR
+ * with a bounded sweep budget (NaN entries when it does not converge, never a hang).
+ */
 export function eigenvaluesOf(A: Rows): Complex[] {
   const n = A.length;
   if (n === 0) return [];
-  const evd = new EigenvalueDecomposition(new Matrix(A), { assumeSymmetric: false });
-  const re = evd.realEigenvalues;
-  const im = evd.imaginaryEigenvalues;
-  return sortEigenvalues(re.map((value, i) => ({ re: value, im: im[i] })));
+  if (!allFinite(A)) return Array.from({ length: n }, () => ({ re: NaN, im: NaN }));
+  return sortEigenvalues(eigenvaluesWithStatus(A).values);
 }
 
 /**
@@ -28,6 +35,10 @@ export function eigenvaluesOf(A: Rows): Complex[] {
  */
 export function realEigenvectors(A: Rows): { values: Complex[]; V: Rows; blockD: Rows } {
   const n = A.length;
+  if (!allFinite(A)) {
+    const nan = Array.from({ length: n }, () => new Array<number>(n).fill(NaN));
+    return { values: Array.from({ length: n }, () => ({ re: NaN, im: NaN })), V: nan, blockD: nan };
+  }
   const evd = new EigenvalueDecomposition(new Matrix(A), { assumeSymmetric: false });
   const re = evd.realEigenvalues;
   const im = evd.imaginaryEigenvalues;
@@ -41,6 +52,7 @@ export function realEigenvectors(A: Rows): { values: Complex[]; V: Rows; blockD:
 /** Singular values, descending. Works for wide and tall matrices. */
 export function singularValuesOf(M: Rows): number[] {
   if (M.length === 0 || M[0].length === 0) return [];
+  if (!allFinite(M)) return new Array<number>(Math.min(M.length, M[0].length)).fill(NaN);
   const tall = M.length >= M[0].length ? M : transposeRows(M);
   const svd = new SingularValueDecomposition(new Matrix(tall), {
     computeLeftSingularVectors: false,
@@ -55,6 +67,10 @@ export function thinSvd(M: Rows): { U: Rows; s: number[]; V: Rows } {
   const p = M.length;
   const q = p === 0 ? 0 : M[0].length;
   if (p === 0 || q === 0) return { U: zerosRows(p, 0), s: [], V: zerosRows(q, 0) };
+  if (!allFinite(M)) {
+    const k = Math.min(p, q);
+    return { U: zerosRows(p, k), s: new Array<number>(k).fill(NaN), V: zerosRows(q, k) };
+  }
   const wide = p < q;
   const svd = new SingularValueDecomposition(new Matrix(wide ? transposeRows(M) : M), {
     computeLeftSingularVectors: true,
