@@ -175,3 +175,60 @@ describe('SciPy reference (test/reference/control_placement.py)', () => {
     }
   });
 });
+
+import fc from 'fast-check';
+import { frobenius } from '../../server/src/control/controlLinearAlgebra';
+
+describe('property: achieved poles within the first-order perturbation bound', () => {
+  it('random plants n = 2…7, m = 1…3, real poles and conjugate pairs', () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 2, max: 7 }), fc.integer({ min: 1, max: 3 }), fc.integer({ min: 1, max: 1_000_000 }), (n, m, seed) => {
+        const random = seededRandom(seed);
+        const A = Array.from({ length: n }, () => Array.from({ length: n }, () => random() * 4));
+        const B = Array.from({ length: n }, () => Array.from({ length: m }, () => random() * 4));
+        const poles: Complex[] = [];
+        while (poles.length < n) {
+          if (n - poles.length >= 2 && random() > 0) {
+            const re = -1 - 3 * (random() + 0.5);
+            const im = 0.2 + 2 * (random() + 0.5);
+            poles.push({ re, im }, { re, im: -im });
+          } else poles.push({ re: -0.5 - 5 * (random() + 0.5), im: 0 });
+        }
+        const result = placePoles(A, B, poles, defaultSettings);
+        expect(result.ok).toBe(true);
+        // |δλ| ≲ κ₂(V)·ε·(‖A‖ + ‖B‖‖K‖) to first order (Bauer–Fike); c = 1e3·n.
+        const smallest = Math.min(...poles.map((p) => Math.hypot(p.re, p.im)));
+        const bound = 1e3 * n * Number.EPSILON * result.eigenvectorCondition * (frobenius(A) + frobenius(B) * result.gainNorm) / smallest;
+        expect(result.maxRelativePoleError).toBeLessThanOrEqual(Math.max(bound, 1e3 * n * Number.EPSILON));
+      }),
+      { numRuns: 150, seed: 42 },
+    );
+  });
+});
+
+describe('multi-input special structure', () => {
+  it('uncontrollable stable mode kept while two inputs place the rest (staircase + KNV)', () => {
+    // diag(−3, 1, 2) mixed by an orthogonal rotation; inputs reach only the last two modes.
+    const c = Math.cos(0.7);
+    const s = Math.sin(0.7);
+    const R = [[c, -s, 0], [s, c, 0], [0, 0, 1]];
+    const Rt = R[0].map((_, j) => R.map((row) => row[j]));
+    const mul = (X: number[][], Y: number[][]) => X.map((row) => Y[0].map((_, j) => row.reduce((sum, v, k) => sum + v * Y[k][j], 0)));
+    const A = mul(mul(R, [[-3, 0, 0], [0, 1, 1], [0, 0, 2]]), Rt);
+    const B = mul(R, [[0, 0], [1, 0], [0.5, 1]]);
+    const result = placePoles(A, B, real(-1, -3, -2), defaultSettings);
+    expect(result.ok).toBe(true);
+    expect(result.controllableDimension).toBe(2);
+    expectPoles(result.achievedPoles, real(-1, -2, -3), 1e-12);
+  });
+
+  it('two identical input columns (rank B = 1): compressed to one input, gain of minimum norm', () => {
+    const A = [[0, 1], [-2, -0.3]];
+    const result = placePoles(A, [[0, 0], [1, 1]], real(-2, -3), defaultSettings);
+    expect(result.method).toBe('single-input');
+    expectPoles(result.achievedPoles, real(-2, -3), 1e-12);
+    // Minimum norm splits the effort equally between the two identical inputs.
+    expect(result.K[0][0]).toBeCloseTo(result.K[1][0], 12);
+    expect(result.K[0][1]).toBeCloseTo(result.K[1][1], 12);
+  });
+});
