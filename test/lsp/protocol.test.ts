@@ -232,6 +232,30 @@ describe('language server over stdio', () => {
     expect(references).toHaveLength(3); // declaration, A, B
   });
 
+  it('answers the client protocol: controllers, controller data, export, report', async () => {
+    const uri = await openAnalysed(HOIST);
+    const list = await session.request<{ controllers: { name: string; plant: string; designed: boolean; line: number }[] }>('loopwright/controllers', { uri });
+    const analysis = analyze(HOIST);
+    const designed = analysis.controllers[0].designed;
+    expect(list.controllers).toEqual([{ name: 'lift', plant: 'hoist', designed, line: 17 }]);
+    const data = await session.request<{ report: { name: string; K: unknown } | null; plant: { name: string } | null; version: number }>(
+      'loopwright/controllerData',
+      { uri, controller: 'lift' },
+    );
+    expect(data.version).toBe(1);
+    expect(data.report?.name).toBe('lift');
+    expect(data.report?.K).toEqual(analysis.controllers[0].K);
+    expect(data.plant?.name).toBe('hoist');
+    const missing = await session.request<{ report: unknown }>('loopwright/controllerData', { uri, controller: 'nope' });
+    expect(missing.report).toBeNull();
+    const exported = await session.request<{ text: string | null; reason?: string }>('loopwright/export', { uri, controller: 'lift', format: 'text' });
+    if (designed) expect(exported.text).toMatch(/^K = \[/m);
+    else expect(exported).toMatchObject({ text: null, reason: expect.stringContaining('no valid design') });
+    const report = await session.request<{ html: string }>('loopwright/report', { uri });
+    expect(report.html).toMatch(/^<!doctype html>/i);
+    expect(report.html).toContain('hoist');
+  });
+
   it('never answers with an error for requests on unknown documents', async () => {
     const uri = 'file:///protocol/not-open.plant';
     expect(await session.request('textDocument/hover', { textDocument: { uri }, position: { line: 0, character: 0 } })).toBeNull();

@@ -53,8 +53,14 @@ export class AnalysisRunner {
       this.running = null;
       this.stopWorker();
       running.resolve({ superseded: true });
+      this.warm(); // a fresh worker loads while the next edit settles
       this.pump();
     }
+  }
+
+  /** Starts the worker ahead of the first job, so the first analysis does not wait for it to load. */
+  warm(): void {
+    if (this.workerPath && !this.disposed) this.ensureWorker();
   }
 
   dispose(): void {

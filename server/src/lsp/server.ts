@@ -51,6 +51,7 @@ import {
   toLspTextEdit,
 } from './convert';
 import { exportController, type ExportFormat } from './exportGains';
+import { reportHtml } from './report';
 import { defaultServerSettings, readServerSettings, settingsFromInitializationOptions, type ServerSettings } from './settings';
 import { shiftRange } from './shiftRanges';
 import type { SlowResult } from './slowAnalysis';
@@ -186,8 +187,8 @@ export function startServer(connection: Connection, options: ServerOptions = {})
       if (documents.get(state.document.uri) !== state) return;
       void analyseSlow(state);
     };
-    if (settings.debounceMs <= 0) run();
-    else state.timer = setTimeout(run, settings.debounceMs);
+    // Even without debounce, wait one turn: edits already queued then replace this one cheaply.
+    state.timer = setTimeout(run, Math.max(0, settings.debounceMs));
   }
 
   async function analyseSlow(state: DocumentState): Promise<void> {
@@ -258,6 +259,7 @@ export function startServer(connection: Connection, options: ServerOptions = {})
   });
 
   connection.onInitialized(async () => {
+    runner.warm();
     if (configurationPull) {
       await pullSettings();
       if (capabilities.workspace?.didChangeConfiguration?.dynamicRegistration) {
@@ -494,7 +496,6 @@ export function startServer(connection: Connection, options: ServerOptions = {})
       const state = stateOf(params.uri);
       const analysis = state && fullAnalysis(state);
       if (!state || !analysis) return { html: '' };
-      const { reportHtml } = await import('./report');
       return { html: reportHtml(params.uri, state.fast.text, analysis, SERVER_VERSION) };
     }),
   );
