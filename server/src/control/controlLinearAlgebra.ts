@@ -104,6 +104,8 @@ export function conditionNumber2(M: Rows): number {
 
 /** Solve A·X = B by LU with partial pivoting; `singular` when a pivot vanishes exactly. */
 export function solveRows(A: Rows, B: Rows): { X: Rows; singular: boolean } {
+  if (A.length === 0) return { X: [], singular: false };
+  if (B.length === 0 || B[0].length === 0) return { X: A.map(() => []), singular: false };
   const lu = new LuDecomposition(new Matrix(A));
   if (lu.isSingular()) return { X: zerosRows(A.length, B[0]?.length ?? 0), singular: true };
   return { X: lu.solve(new Matrix(B)).to2DArray(), singular: false };

@@ -7,7 +7,7 @@ import type { Domain } from './structure';
 
 export function steadyStateGain(A: Rows, B: Rows, C: Rows, D: Rows, domain: Domain): Rows | null {
   const n = A.length;
-  const m = B[0]?.length ?? D[0]?.length ?? 0;
+  const m = n > 0 ? (B[0]?.length ?? 0) : (D[0]?.length ?? 0);
   const M = A.map((row, i) => row.map((v, j) => (domain === 'discrete' && i === j ? 1 : 0) - v));
   if (n > 0) {
     const s = singularValuesOf(M);

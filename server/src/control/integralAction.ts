@@ -17,7 +17,7 @@ export interface AugmentedPlant {
 
 export function augmentWithIntegrators(A: Rows, B: Rows, C: Rows, D: Rows, outputs: number[], domain: Domain, samplePeriod = 1): AugmentedPlant {
   const n = A.length;
-  const m = B[0]?.length ?? 0;
+  const m = A.length > 0 ? (B[0]?.length ?? 0) : (D[0]?.length ?? 0);
   const q = outputs.length;
   const step = domain === 'discrete' ? samplePeriod : 1;
   const Aa: Rows = [
@@ -44,7 +44,7 @@ export interface IntegralFeasibility {
 }
 
 export function integralActionFeasibility(A: Rows, B: Rows, C: Rows, D: Rows, outputs: number[], domain: Domain): IntegralFeasibility {
-  const m = B[0]?.length ?? 0;
+  const m = A.length > 0 ? (B[0]?.length ?? 0) : (D[0]?.length ?? 0);
   if (outputs.length === 0) return { feasible: false, reason: 'no-outputs' };
   if (outputs.length > m) return { feasible: false, reason: 'more-outputs-than-inputs' };
   const controllability = analyzeControllability(A, B, domain, { computeMargin: false });
@@ -85,7 +85,7 @@ export function designIntegralAction(
   samplePeriod = 1,
 ): IntegralDesign {
   const n = A.length;
-  const m = B[0]?.length ?? 0;
+  const m = A.length > 0 ? (B[0]?.length ?? 0) : (D[0]?.length ?? 0);
   const q = outputs.length;
   const feasibility = integralActionFeasibility(A, B, C, D, outputs, domain);
   const empty = { Kx: [] as Rows, Ki: [] as Rows, K_aug: [] as Rows, placement: null, closedLoopPoles: [] as Complex[] };

@@ -197,7 +197,7 @@ export function placementAccuracy(
  */
 export function placePoles(A: Rows, B: Rows, poles: Complex[], settings: AnalysisSettings): PlacementResult {
   const n = A.length;
-  const m = n === 0 ? (B[0]?.length ?? 0) : (B[0]?.length ?? 0);
+  const m = B[0]?.length ?? 0;
   const requested = poles.map((p) => ({ re: p.re, im: p.im }));
   if (m === 0) return failed(n, m, requested, 'no-input');
   if (poles.length !== n) return failed(n, m, requested, 'pole-count');

@@ -63,7 +63,7 @@ export function setpointGains(
   settings: AnalysisSettings = defaultSettings,
 ): SetpointResult {
   const n = A.length;
-  const m = B[0]?.length ?? 0;
+  const m = n > 0 ? (B[0]?.length ?? 0) : (D[0]?.length ?? 0);
   const q = trackedOutputs.length;
   const Ct = trackedOutputs.map((i) => C[i].slice());
   const Dt = trackedOutputs.map((i) => (D[i] ?? new Array<number>(m).fill(0)).slice());
