@@ -206,6 +206,16 @@ describe('formatting', () => {
     );
   });
 
+  it('formats every matrix of a document in one go, also two on one line', () => {
+    const messy =
+      'plant p {\n states a,b\n inputs u, v\n outputs a\n disturbances w\n A=[0,1;0,0]\n B=[1,0;0,1]\n C=[1,0]\n D=[0,0]\n E=[1;0]\n}\n' +
+      'controller c for p {\n lqr Q=[1,0;\n0,1], R=[1,0;\n0,2]\n}\n';
+    const once = formatText(messy);
+    expect(formatText(once)).toBe(once);
+    expect(once).toContain('  A=[0, 1; 0, 0]\n  B=[1, 0; 0, 1]\n  C=[1, 0]\n  D=[0, 0]\n  E=[1; 0]');
+    expect(once).toContain('  lqr Q=[1, 0;\n         0, 1], R=[1, 0;\n                   0, 2]');
+  });
+
   it('leaves a matrix holding comments as written (re-indented only)', () => {
     const text = 'plant p {\n    A = [0, 1   # top\n         0, 0]\n}\n';
     expect(formatText(text)).toBe('plant p {\n  A = [0, 1   # top\n       0, 0]\n}\n');

@@ -104,9 +104,11 @@ function alignMatrices(text: string, eol: string): string {
   for (const declaration of parse.document.declarations) {
     for (const item of declaration.items) itemExpressions(item).forEach(collect);
   }
-  // Replace the first matrix that changes; the caller repeats until nothing changes, so columns
-  // are always measured on the current text.
-  for (const matrix of matrices) {
+  // Rewrite from the last matrix to the first, so earlier offsets stay valid. A matrix after
+  // another on the same line is measured before that one changes; the caller repeats the pass
+  // until nothing changes, which settles such lines.
+  let result = text;
+  for (const matrix of [...matrices].sort((a, b) => b.startOffset - a.startOffset)) {
     const source = text.slice(matrix.startOffset, matrix.endOffset);
     if (source.includes('#') || !source.startsWith('[') || !source.endsWith(']')) continue;
     const cells = matrix.rows.map((row) => row.entries.map((entry) => text.slice(entry.startOffset, entry.endOffset)));
@@ -115,9 +117,9 @@ function alignMatrices(text: string, eol: string): string {
     const multiline = /[\r\n]/.test(source);
     const column = positionAt(text, matrix.startOffset).character;
     const rendered = renderMatrix(normalised, column, eol, multiline);
-    if (rendered !== source) return text.slice(0, matrix.startOffset) + rendered + text.slice(matrix.endOffset);
+    if (rendered !== source) result = result.slice(0, matrix.startOffset) + rendered + result.slice(matrix.endOffset);
   }
-  return text;
+  return result;
 }
 
 /** Edits turning `before` into `after`: changed lines between a common prefix and suffix. */
