@@ -96,7 +96,8 @@ describe('multi-input robust eigenstructure assignment', () => {
     expect(result.method).toBe('robust-eigenstructure');
     expectPoles(result.achievedPoles, poles, 1e-10);
     expect(result.eigenvectorCondition).toBeGreaterThanOrEqual(1);
-    expect(result.eigenvectorCondition).toBeLessThan(10);
+    // SciPy 1.17 place_poles on the same data: κ₂(V) = 4.28 (KNV0), 4.51 (YT); ours ≈ 4.4.
+    expect(result.eigenvectorCondition).toBeLessThan(5);
     expect(result.backwardError).toBeLessThan(1e-13);
   });
 
