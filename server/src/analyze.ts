@@ -4,7 +4,8 @@
 // Riccati, simulation) is separate so the server can run it in a worker with a budget.
 import { parsePlantText } from '../../grammar/src/index';
 import type { ParseResult } from '../../grammar/src/ast';
-import { checkDocument } from './model/check';
+import { checkDocument, checkPlant } from './model/check';
+import type { PlantDecl } from '../../grammar/src/ast';
 import type { CheckedDocument, Diagnostic } from './model/types';
 import { resolveSettings, type AnalysisSettings } from './control/settings';
 import { analyzePlant, designController, type PlantReport, type ControllerReport } from './control/design';
@@ -54,6 +55,10 @@ export interface SlowOptions {
   isCancelled?: () => boolean;
 }
 
+function plantDeclarations(fast: FastCheck): PlantDecl[] {
+  return fast.parse.document.declarations.filter((declaration): declaration is PlantDecl => declaration.kind === 'plant');
+}
+
 /** Slow analyses on a fast-checked document. */
 export function analyzeFastCheck(
   fast: FastCheck,
@@ -86,7 +91,19 @@ export function analyzeFastCheck(
   for (const controller of fast.model.controllers) {
     if (options.isCancelled?.()) return { ...fast, settings, plants, controllers, skipped: { reason: 'cancelled', detail: 'a newer edit arrived' } };
     const plant = controller.plantIndex === null ? undefined : fast.model.plants[controller.plantIndex];
-    const report = designController(controller, plant, settings);
+    const declaration = controller.plantIndex === null ? undefined : plantDeclarations(fast)[controller.plantIndex];
+    const report = designController(controller, plant, settings, {
+      // Fragility: the same plant text re-checked with parameters moved (nothing is re-parsed).
+      rebuildPlant: declaration
+        ? (overrides) => {
+            try {
+              return checkPlant(declaration, [], overrides).checked;
+            } catch {
+              return null;
+            }
+          }
+        : undefined,
+    });
     controllers.push(report);
     diagnostics.push(...report.diagnostics);
   }

@@ -8,6 +8,11 @@ export interface AnalysisSettings {
   observerSpeedFactor: number;
   /** With `spec`, non-dominant poles are this factor faster than the dominant pair (common practice: 3–5). */
   fastPoleFactor: number;
+  /**
+   * A tracking design is called fragile when the ± parameterErrorPercent study moves the settled
+   * output by more than this percent of the set-point (common practice: a few percent).
+   */
+  fragilityTolerancePercent: number;
   /** Placement is called fragile above this eigenvector condition number. */
   placementConditionLimit: number;
   /** Set-point gains larger than this multiple of the model scale are called ill-conditioned. */
@@ -26,6 +31,7 @@ export const defaultSettings: AnalysisSettings = {
   parameterErrorPercent: 10,
   observerSpeedFactor: 4,
   fastPoleFactor: 4,
+  fragilityTolerancePercent: 2,
   placementConditionLimit: 1e6,
   setpointGainLimit: 1e6,
   samplesPerTimeConstant: 10,

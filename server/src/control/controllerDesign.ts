@@ -1,0 +1,613 @@
+// One controller's design, end to end: the design model (continuous, or sampled by zero-order
+// hold with an optional computation delay), integral augmentation, gains (pole placement, LQR or
+// poles from a specification), set-point gains, observer, step responses, loop margins, sampling
+// and single-precision checks, and the implementation record for export. Every number comes
+// from a pure analysis in this folder; this file only sequences them and attaches source ranges.
+import type { CheckedController, CheckedPlant, Complex, Diagnostic, Range, Rows } from '../model/types';
+import { blockDiagonal, hstack, identity, multiply, scale, vstack, zeros } from '../numeric';
+import { eigenvaluesOf } from './controlLinearAlgebra';
+import type { StateSpace } from './combinedClosedLoop';
+import { combinedClosedLoop } from './combinedClosedLoop';
+import { augmentComputationDelay } from './delayAugment';
+import { designDiagnostics as findings } from './diagnostics/designFindings';
+import { discretiseZeroOrderHold, mapPolesToContinuous, mapPolesToDiscrete, sampledCostWeights } from './discretise';
+import { float32ClosedLoopCheck } from './float32Check';
+import { frequencyResponse, logarithmicGrid } from './frequencyResponse';
+import { analyzeFragility, type PlantMatrices } from './fragility';
+import { disturbanceRejection } from './disturbanceRejection';
+import { integralActionFeasibility } from './integralAction';
+import { steadyStateKalmanGain } from './kalman';
+import { designLqr } from './lqr';
+import { loopMargins, outputFeedbackLoop, stateFeedbackLoop, type LoopMarginsResult } from './margins';
+import { compareObserverSpeed, defaultObserverPoles, designObserverByPlacement } from './observer';
+import { placePoles } from './placement';
+import type { ControllerReport, ImplementationReport, StepResponseReport } from './reportTypes';
+import { adviseSamplePeriod } from './samplingAdvice';
+import { setpointGains, type SetpointResult } from './setpoint';
+import type { AnalysisSettings } from './settings';
+import { checkSpec, polesFromSpec } from './specToPoles';
+import { simulateStepResponses, type StepResponseProblem } from './stepResponse';
+import { measuresAllStates } from './structure';
+import { singularValuesOf } from './controlLinearAlgebra';
+
+export interface DesignContext {
+  /** Re-checks the plant with parameter overrides (for the fragility study); null when that fails. */
+  rebuildPlant?: (overrides: Record<string, number>) => CheckedPlant | null;
+}
+
+/** The matrices the gains are computed for (continuous plant, or its sampled model). */
+export interface DesignModel {
+  domain: 'continuous' | 'discrete';
+  T: number | null;
+  /** Plant part (n_d states: plant states, plus m per sample of computation delay). */
+  A: Rows;
+  B: Rows;
+  C: Rows;
+  D: Rows;
+  /** Disturbance input of the design model. */
+  E: Rows;
+  delayStates: number;
+}
+
+export function emptyControllerReport(controller: CheckedController): ControllerReport {
+  return {
+    name: controller.name,
+    plant: controller.plantName,
+    designed: false,
+    diagnostics: [],
+    method: controller.poles ? 'poles' : controller.lqr ? 'lqr' : controller.spec ? 'spec' : null,
+    domain: controller.sample ? 'discrete' : 'continuous',
+    samplePeriod: controller.sample?.period ?? null,
+    K: null,
+    Ki: null,
+    closedLoopPoles: [],
+    trackedOutputs: [],
+    dcGain: null,
+    prescaler: null,
+    Nx: null,
+    Nu: null,
+    details: {},
+    step: [],
+    implementation: null,
+  };
+}
+
+/** The design model: the plant as is, or sampled by zero-order hold (Van Loan) with delay states. */
+export function buildDesignModel(plant: CheckedPlant, controller: CheckedController): DesignModel {
+  const { A, B, C, D, E } = plant;
+  if (!controller.sample) return { domain: 'continuous', T: null, A, B, C, D, E, delayStates: 0 };
+  const T = controller.sample.period;
+  const held = discretiseZeroOrderHold(A, B, T, E);
+  let model: DesignModel = { domain: 'discrete', T, A: held.Phi, B: held.Gamma, C, D, E: held.GammaDisturbance, delayStates: 0 };
+  for (let k = 0; k < (controller.delay?.samples ?? 0); k++) model = withComputationDelay(model);
+  return model;
+}
+
+/** One more sample of computation delay: the previous inputs become states (delayAugment.ts). */
+function withComputationDelay(model: DesignModel): DesignModel {
+  const augmented = augmentComputationDelay(model.A, model.B, model.C, model.D, model.E);
+  return { ...model, A: augmented.Phi, B: augmented.Gamma, C: augmented.C, D: augmented.D, E: augmented.GammaDisturbance, delayStates: model.delayStates + augmented.addedStates };
+}
+
+/** Integrator augmentation: ξ' = r − y (continuous) or ξ[k+1] = ξ[k] + T(r − y[k]) (discrete). */
+export function integralAugmentation(model: DesignModel, outputs: number[]): { A: Rows; B: Rows } {
+  const n = model.A.length;
+  const q = outputs.length;
+  const Ci = outputs.map((i) => model.C[i]);
+  const Di = outputs.map((i) => model.D[i]);
+  const step = model.domain === 'discrete' ? (model.T as number) : 1;
+  const integratorBlock = model.domain === 'discrete' ? identity(q) : zeros(q, q);
+  return {
+    A: vstack(hstack(model.A, zeros(n, q)), hstack(scale(Ci, -step), integratorBlock)),
+    B: vstack(model.B, scale(Di, -step)),
+  };
+}
+
+function anchor(controller: CheckedController): Range {
+  return controller.poles?.range ?? controller.lqr?.range ?? controller.spec?.range ?? controller.nameRange;
+}
+
+function splitColumns(K: Rows, at: number): { left: Rows; right: Rows } {
+  return { left: K.map((row) => row.slice(0, at)), right: K.map((row) => row.slice(at)) };
+}
+
+interface Gains {
+  K: Rows; // m × (n_d + q)
+  closedLoopPoles: Complex[];
+  details: Record<string, unknown>;
+}
+
+/** Gains by placement, LQR, or poles from a specification; null (with diagnostics) when impossible. */
+function computeGains(
+  controller: CheckedController,
+  plant: CheckedPlant,
+  model: DesignModel,
+  augmented: { A: Rows; B: Rows },
+  integratedCount: number,
+  settings: AnalysisSettings,
+  out: Diagnostic[],
+): Gains | null {
+  const n = plant.states.length;
+  const total = augmented.A.length;
+  if (controller.lqr) {
+    const { Q, R, N } = controller.lqr;
+    if (Q.length !== n + integratedCount) {
+      out.push(findings.weightShape.create(controller.lqr.range, ['Q', n + integratedCount, Q.length]));
+      return null;
+    }
+    let problem = { A: augmented.A, B: augmented.B, Q, R, N };
+    let weightsNote = 'continuous cost';
+    if (model.domain === 'discrete') {
+      // Weights that make the sampled design minimise the continuous cost (Van Loan 1978).
+      const continuousModel = integralAugmentation({ ...model, domain: 'continuous', A: plant.A, B: plant.B, C: plant.C, D: plant.D, delayStates: 0 }, controller.integral?.outputs ?? []);
+      const weights = sampledCostWeights(continuousModel.A, continuousModel.B, Q, R, model.T as number, N);
+      const pad = model.delayStates;
+      const Qd = pad ? blockDiagonal(weights.Qd, zeros(pad, pad)) : weights.Qd;
+      const Nd = pad ? insertRows(weights.Nd, n, zeros(pad, R.length)) : weights.Nd;
+      problem = { A: augmented.A, B: augmented.B, Q: pad ? reorderForDelay(Qd, n, pad, integratedCount) : Qd, R: weights.Rd, N: Nd };
+      weightsNote = 'sampled continuous cost (Van Loan 1978), so the gains change little with T';
+    }
+    const lqr = designLqr(problem.A, problem.B, problem.Q, problem.R, problem.N, model.domain);
+    if (!lqr.ok || !lqr.K) {
+      out.push(findings.lqrFailure(controller.lqr.range, lqr));
+      return null;
+    }
+    return {
+      K: lqr.K,
+      closedLoopPoles: lqr.closedLoopPoles,
+      details: {
+        lqr: {
+          riccatiResidual: lqr.residual,
+          conditionEstimate: lqr.conditionEstimate,
+          weights: weightsNote,
+          classicalMarginsApply: lqr.classicalMarginsApply && !controller.observer,
+        },
+      },
+    };
+  }
+
+  let requested: Complex[];
+  let specDetails: Record<string, unknown> | undefined;
+  if (controller.poles) {
+    requested = [...controller.poles.values, ...(controller.integral?.poles?.values ?? [])];
+  } else if (controller.spec) {
+    const spec = {
+      settlingSeconds: controller.spec.settling?.seconds,
+      overshootPercent: controller.spec.overshoot?.percent,
+      riseSeconds: controller.spec.rise?.seconds,
+    };
+    const chosen = polesFromSpec(spec, n + integratedCount, { fastPoleFactor: settings.fastPoleFactor, domain: 'continuous' });
+    if (!chosen.ok) {
+      out.push(findings.specUnusable.create(controller.spec.range, [chosen.failure ?? 'no-time-requirement']));
+      return null;
+    }
+    requested = chosen.poles;
+    specDetails = { dampingRatio: chosen.dampingRatio, naturalFrequency: chosen.naturalFrequency, formulas: chosen.formulas, chosenPoles: chosen.poles };
+  } else {
+    return null; // the model layer already reported the missing design line
+  }
+  if (requested.length !== n + integratedCount) return null; // pole count reported by the model layer
+  let target = requested;
+  if (model.domain === 'discrete') {
+    target = mapPolesToDiscrete(requested, model.T as number);
+    // Computation-delay states are placed at z = 0 (dead-beat), stated in the report.
+    const delayPoles = Array.from({ length: model.delayStates }, () => ({ re: 0, im: 0 }));
+    target = [...target.slice(0, n), ...delayPoles, ...target.slice(n)];
+  }
+  if (target.length !== total) return null;
+  const placement = placePoles(augmented.A, augmented.B, target, settings);
+  if (!placement.ok) {
+    out.push(findings.placementFailure(controller, placement, model.domain, plant));
+    return null;
+  }
+  out.push(...findings.placementWarnings(controller, placement, model.domain));
+  return {
+    K: placement.K,
+    closedLoopPoles: placement.achievedPoles,
+    details: {
+      placement: {
+        method: placement.method,
+        gainNorm: placement.gainNorm,
+        eigenvectorCondition: placement.eigenvectorCondition,
+        backwardError: placement.backwardError,
+        maxRelativePoleError: placement.maxRelativePoleError,
+        fragile: placement.fragile,
+        warnings: placement.warnings,
+        requestedPoles: target,
+      },
+      ...(specDetails ? { spec: specDetails } : {}),
+    },
+  };
+}
+
+/** Inserts rows into a matrix at `at` (used to pad the sampled cross weight for delay states). */
+function insertRows(matrix: Rows, at: number, rows: Rows): Rows {
+  return [...matrix.slice(0, at), ...rows, ...matrix.slice(at)];
+}
+
+/** Moves the zero delay-state weights between the plant states and the integrators. */
+function reorderForDelay(Q: Rows, n: number, pad: number, q: number): Rows {
+  // Q arrives as blockdiag(Q_(x,ξ), 0_pad); the augmented state order is (x, delay, ξ).
+  const order = [...Array.from({ length: n }, (_, i) => i), ...Array.from({ length: pad }, (_, i) => n + q + i), ...Array.from({ length: q }, (_, i) => n + i)];
+  return order.map((i) => order.map((j) => Q[i][j]));
+}
+
+function stepReport(
+  plant: CheckedPlant,
+  problem: StepResponseProblem,
+  limits: ([number, number] | null)[],
+  y0: number[],
+): { reports: StepResponseReport[]; raw: ReturnType<typeof simulateStepResponses> } {
+  const raw = simulateStepResponses(problem);
+  const outputNames = plant.outputs.map((s) => s.name);
+  const inputNames = plant.inputs.map((s) => s.name);
+  const trace = (names: string[], series: number[][], offset: number[]) =>
+    names.map((name, i) => ({ name, values: (series[i] ?? []).map((v) => v + (offset[i] ?? 0)) }));
+  const u0 = plant.operatingPoint?.inputs ?? plant.inputs.map(() => 0);
+  const reports = raw.experiments.map((experiment): StepResponseReport => {
+    const linear = experiment.linear;
+    const output = experiment.steppedOutput;
+    const metrics = linear.metrics;
+    return {
+      steppedOutput: outputNames[output],
+      time: linear.time,
+      outputs: trace(outputNames, linear.outputs, y0),
+      inputs: trace(inputNames, linear.inputs, u0).map((entry, i) => ({ ...entry, limit: limits[i] ?? null })),
+      ...(experiment.saturated ? { saturated: { outputs: trace(outputNames, experiment.saturated.outputs, y0), inputs: trace(inputNames, experiment.saturated.inputs, u0) } } : {}),
+      ...(experiment.antiWindup ? { antiWindup: { outputs: trace(outputNames, experiment.antiWindup.outputs, y0), inputs: trace(inputNames, experiment.antiWindup.inputs, u0) } } : {}),
+      ...(experiment.nonlinear ? { nonlinear: { outputs: trace(outputNames, experiment.nonlinear.outputs, y0), inputs: trace(inputNames, experiment.nonlinear.inputs, u0) } } : {}),
+      metrics: {
+        output: outputNames[output],
+        setpoint: metrics.setPoint + (y0[output] ?? 0),
+        finalValue: metrics.finalValue + (y0[output] ?? 0),
+        riseTime: metrics.riseTime,
+        settlingTime: metrics.settlingTime,
+        overshootPercent: metrics.overshootPercent,
+        undershootPercent: metrics.undershootPercent,
+        steadyStateError: metrics.steadyStateError,
+        peakInput: metrics.inputs.map((peak) => ({
+          input: inputNames[peak.input],
+          value: peak.peak + (u0[peak.input] ?? 0),
+          limit: limits[peak.input] ?? null,
+        })),
+      },
+    };
+  });
+  return { reports, raw };
+}
+
+export function designController(
+  controller: CheckedController,
+  plant: CheckedPlant | undefined,
+  settings: AnalysisSettings,
+  context: DesignContext = {},
+): ControllerReport {
+  const report = emptyControllerReport(controller);
+  if (!plant || !plant.usable || !controller.usable || plant.states.length === 0) return report;
+  const out: Diagnostic[] = [];
+  report.diagnostics = out;
+  const n = plant.states.length;
+  const m = plant.inputs.length;
+  if (m === 0) {
+    out.push(findings.noInputs.create(controller.nameRange, [plant.name]));
+    return report;
+  }
+  const model = buildDesignModel(plant, controller);
+  const nd = model.A.length;
+  const integrated = controller.integral?.outputs ?? [];
+  const tracked = controller.track?.outputs ?? [];
+  report.trackedOutputs = tracked.map((i) => plant.outputs[i]?.name ?? String(i));
+
+  // Integral action is offered only when it can work: stabilisable pair and no zero at DC.
+  if (integrated.length) {
+    const feasibility = integralActionFeasibility(model.A, model.B, model.C, model.D, integrated, model.domain);
+    if (!feasibility.feasible) {
+      out.push(findings.integralInfeasible(controller, plant, feasibility, model.domain));
+      return report;
+    }
+  }
+  const augmented = integrated.length ? integralAugmentation(model, integrated) : { A: model.A, B: model.B };
+  const gains = computeGains(controller, plant, model, augmented, integrated.length, settings, out);
+  if (!gains) return report;
+  const { left: Kx, right: Ki } = splitColumns(gains.K, nd);
+  report.K = Kx;
+  report.Ki = integrated.length ? Ki : null;
+  report.closedLoopPoles = gains.closedLoopPoles;
+  Object.assign(report.details, gains.details, {
+    designModel: model.domain === 'discrete' ? { Phi: model.A, Gamma: model.B, delayStates: model.delayStates } : undefined,
+  });
+  report.designed = true;
+
+  // Set-point gains and the closed-loop DC gain, decided by the rank of the Rosenbrock matrix.
+  let setpoint: SetpointResult | null = null;
+  if (tracked.length) {
+    setpoint = setpointGains(model.A, model.B, model.C, model.D, tracked, Kx, model.domain, settings);
+    report.details.setpointFeasibility = setpoint.feasibility;
+    report.details.setpointCondition = setpoint.conditionNumber;
+    out.push(...findings.trackingFindings(controller, plant, setpoint, integrated, gains.closedLoopPoles, model.domain));
+    const usable = setpoint.feasibility === 'unique' || setpoint.feasibility === 'minimum-norm';
+    report.prescaler = usable ? setpoint.prescaler : null;
+    report.Nx = usable ? setpoint.Nx : null;
+    report.Nu = usable ? setpoint.Nu : null;
+    report.dcGain = setpoint.dcGainDefined ? setpoint.closedLoopDcGain : null;
+  }
+
+  // Observer (estimator) and the full-state warning.
+  const observerInfo = designEstimator(controller, plant, model, gains.closedLoopPoles, settings, out);
+  if (observerInfo) report.details.observer = observerInfo.details;
+  else if (!measuresAllStates(plant.C, n)) {
+    out.push(findings.fullStateWithoutObserver(controller, plant, measuredRank(plant.C), suggestedObserverPoles(gains.closedLoopPoles, model, settings)));
+  }
+
+  // Step responses, one set-point at a time, with saturation and the nonlinear plant where known.
+  const x0 = plant.operatingPoint?.states ?? plant.states.map(() => 0);
+  const u0 = plant.operatingPoint?.inputs ?? plant.inputs.map(() => 0);
+  const y0 = plant.operatingPoint?.outputs ?? plant.outputs.map(() => 0);
+  const limits: ([number, number] | null)[] = plant.inputs.map((_, i) => {
+    const limit = controller.limits.find((entry) => entry.input === i);
+    return limit ? [limit.low, limit.high] : null;
+  });
+  const stepped = tracked.length ? tracked : integrated;
+  if (stepped.length && setpoint?.feasibility !== 'zero-at-dc') {
+    const stepSizes = stepped.map((output) => {
+      const line = controller.steps.find((s) => s.output === output);
+      return line ? line.value - (y0[output] ?? 0) : 1;
+    });
+    const problem: StepResponseProblem = {
+      domain: model.domain,
+      samplePeriod: model.T ?? undefined,
+      A: model.A,
+      B: model.B,
+      C: model.C,
+      D: model.D,
+      K: Kx,
+      prescaler: report.prescaler ?? undefined,
+      tracked: stepped,
+      integral: integrated.length ? { outputs: integrated, Ki } : undefined,
+      limits: limits.map((limit, i) => (limit ? { low: limit[0] - u0[i], high: limit[1] - u0[i] } : null)),
+      stepSizes,
+      nonlinear:
+        plant.nonlinear && plant.operatingPoint && model.delayStates === 0
+          ? { model: plant.nonlinear, states: x0, inputs: u0, disturbances: plant.operatingPoint.disturbances, outputs: y0 }
+          : undefined,
+      points: settings.simulationPoints,
+    };
+    const { reports, raw } = stepReport(plant, problem, limits, y0);
+    report.step = reports;
+    report.details.simulation = { methods: raw.methods, duration: raw.duration, step: raw.step, truncated: raw.truncated };
+    out.push(...findings.responseFindings(controller, plant, raw, reports));
+    if (controller.spec && (controller.poles || controller.lqr || controller.spec)) {
+      for (const response of reports) {
+        const violations = checkSpec(response.metrics, {
+          settlingSeconds: controller.spec.settling?.seconds,
+          overshootPercent: controller.spec.overshoot?.percent,
+          riseSeconds: controller.spec.rise?.seconds,
+        });
+        for (const violation of violations) out.push(findings.specViolation.create(controller.spec.range, [violation.kind, violation.required, violation.achieved]));
+      }
+    }
+  }
+
+  // Margins of the loop as implemented, broken at the plant input.
+  const loop = implementedLoop(model, gains.K, augmented, observerInfo, integrated);
+  const margins = loopMargins(loop, model.domain, model.T ?? 1);
+  report.details.margins = margins;
+  out.push(...findings.marginFindings(controller, plant, margins));
+  report.details.frequencyResponse = openLoopFrequencyResponse(model, loop, margins);
+
+  // Sampling advice and single-precision check for sampled designs.
+  if (model.domain === 'discrete') {
+    const T = model.T as number;
+    const continuousPoles = mapPolesToContinuous(gains.closedLoopPoles.filter((z) => Math.hypot(z.re, z.im) > 0), T);
+    const advice = adviseSamplePeriod(T, continuousPoles, eigenvaluesOf(plant.A), {
+      samplesPerTimeConstant: settings.samplesPerTimeConstant,
+    });
+    report.details.sampling = advice;
+    out.push(...findings.samplingFindings(controller, advice));
+    const single = float32ClosedLoopCheck(augmented.A, augmented.B, gains.K, 'discrete');
+    report.details.float32 = { ok: single.ok, bound: single.bound, largestRelativeMove: single.largestRelativeMove };
+    if (!single.ok) out.push(findings.float32Finding(controller, single));
+  }
+
+  // Fragility of the tracking design under parameter error, and disturbance rejection.
+  if (tracked.length && report.prescaler) {
+    const integral = integrated.length ? { Kx, Ki, outputs: integrated } : undefined;
+    if (context.rebuildPlant) {
+      const rebuildPlant = context.rebuildPlant;
+      const names = plant.parameters.map((parameter) => parameter.name);
+      const rebuild = (values: number[]): PlantMatrices | null => {
+        const perturbed = rebuildPlant(Object.fromEntries(names.map((name, i) => [name, values[i]])));
+        if (!perturbed || !perturbed.usable) return null;
+        const perturbedModel = buildDesignModel(perturbed, controller);
+        return { A: perturbedModel.A, B: perturbedModel.B, C: perturbedModel.C, D: perturbedModel.D, E: perturbedModel.E };
+      };
+      const fragility = analyzeFragility({
+        rebuild,
+        nominal: plant.parameters.map((parameter) => parameter.value),
+        K: Kx,
+        N: report.prescaler,
+        trackedOutputs: tracked,
+        percent: settings.parameterErrorPercent,
+        domain: model.domain,
+        samplePeriod: model.T ?? undefined,
+        integral,
+      });
+      report.details.fragility = { ...fragility, parameterNames: [...names, 'B (input gain)'] };
+      const integralFeasible = !integrated.length && integralActionFeasibility(model.A, model.B, model.C, model.D, tracked, model.domain).feasible;
+      const verdict = findings.fragilityFindings(
+        controller,
+        plant,
+        fragility,
+        names,
+        settings.fragilityTolerancePercent / 100,
+        integrated.length > 0,
+        integralFeasible,
+        gains.closedLoopPoles,
+        model.domain,
+      );
+      out.push(...verdict.diagnostics);
+    }
+    if (plant.disturbances.length) {
+      report.details.disturbanceRejection = disturbanceRejection(
+        { A: model.A, B: model.B, C: model.C, D: model.D, E: model.E, F: plant.F },
+        Kx,
+        tracked,
+        model.domain,
+        integral,
+        model.T ?? 1,
+      );
+    }
+  }
+
+  report.implementation = implementationRecord(plant, model, report, observerInfo, x0, u0, y0, integrated, tracked);
+  return report;
+}
+
+/** Number of independent measured directions: rank of C with the tolerance max(p, n)·ε·σ_max. */
+function measuredRank(C: Rows): number {
+  const s = singularValuesOf(C);
+  const tolerance = Math.max(C.length, C[0]?.length ?? 0) * Number.EPSILON * (s[0] ?? 0);
+  return s.filter((value) => value > tolerance).length;
+}
+
+interface EstimatorInfo {
+  L: Rows;
+  form: 'predictor' | 'current';
+  poles: Complex[];
+  details: Record<string, unknown>;
+}
+
+function suggestedObserverPoles(controllerPoles: Complex[], model: DesignModel, settings: AnalysisSettings): string {
+  const n = model.A.length;
+  const base = model.domain === 'discrete' ? mapPolesToContinuous(controllerPoles.filter((z) => Math.hypot(z.re, z.im) > 0), model.T as number) : controllerPoles;
+  const poles = defaultObserverPoles(base.slice(0, n), settings.observerSpeedFactor, 'continuous');
+  return `[${poles.map((p) => (Math.abs(p.im) > 0 ? `${+p.re.toPrecision(4)} ${p.im < 0 ? '-' : '+'} ${+Math.abs(p.im).toPrecision(4)}j` : `${+p.re.toPrecision(4)}`)).join(', ')}]`;
+}
+
+function designEstimator(
+  controller: CheckedController,
+  plant: CheckedPlant,
+  model: DesignModel,
+  controllerPoles: Complex[],
+  settings: AnalysisSettings,
+  out: Diagnostic[],
+): EstimatorInfo | null {
+  const spec = controller.observer;
+  if (!spec) return null;
+  const form = model.domain === 'discrete' ? spec.form : 'predictor';
+  if (form === 'current' && plant.D.some((row) => row.some((v) => v !== 0))) {
+    out.push(findings.currentFormFeedthrough.create(spec.range, [plant.name]));
+    return null;
+  }
+  let L: Rows;
+  let poles: Complex[];
+  let details: Record<string, unknown>;
+  if (spec.kind === 'poles') {
+    let requested = spec.poles.values;
+    if (model.domain === 'discrete') {
+      requested = mapPolesToDiscrete(requested, model.T as number);
+      requested = [...requested, ...Array.from({ length: model.delayStates }, () => ({ re: 0, im: 0 }))];
+    }
+    if (requested.length !== model.A.length) {
+      out.push(findings.observerPoleCount.create(spec.poles.range, [model.A.length - model.delayStates, spec.poles.values.length]));
+      return null;
+    }
+    const placed = designObserverByPlacement(model.A, model.C, requested, settings);
+    if (!placed.ok || !placed.L) {
+      out.push(findings.observerFailure(spec.range, placed.failure?.mode));
+      return null;
+    }
+    let gain = placed.L;
+    // Current form: x̂ = x̄ + M(y − C x̄) with M chosen so that A − A·M·C has the requested poles: M = A⁻¹L
+    // would need A invertible, so M is placed directly on the pair (Aᵀ, (C A)ᵀ) instead.
+    if (form === 'current') {
+      const currentPlaced = designObserverByPlacement(model.A, multiply(model.C, model.A), requested, settings);
+      if (!currentPlaced.ok || !currentPlaced.L) {
+        out.push(findings.observerFailure(spec.range, currentPlaced.failure?.mode));
+        return null;
+      }
+      gain = currentPlaced.L;
+    }
+    L = gain;
+    poles = form === 'current' ? requested : placed.achievedPoles;
+    details = { method: 'placement', L, poles, form, eigenvectorCondition: placed.eigenvectorCondition, backwardError: placed.backwardError };
+  } else {
+    const onDisturbances = spec.enters === 'disturbances';
+    const kalman = steadyStateKalmanGain({
+      A: model.A,
+      C: model.C,
+      // W acts on the disturbance inputs when its size is theirs, else on the plant states
+      // (padded with zeros for computation-delay states, which carry no process noise).
+      W: onDisturbances ? spec.W : blockDiagonal(spec.W, zeros(model.delayStates, model.delayStates)),
+      V: spec.V,
+      G: onDisturbances ? model.E : undefined,
+      domain: model.domain,
+      form,
+    });
+    if (!kalman.ok || !kalman.gain) {
+      out.push(findings.kalmanFailure(spec.range, kalman));
+      return null;
+    }
+    L = kalman.gain;
+    poles = kalman.observerPoles;
+    details = { method: 'kalman', L, poles, form, riccatiResidual: kalman.residual, noiseMeaning: model.domain === 'discrete' ? 'covariances per sample' : 'spectral densities' };
+  }
+  const speed = compareObserverSpeed(controllerPoles, poles, model.domain, model.T ?? 1);
+  if (speed.observerSlower) out.push(findings.observerSlower.create(spec.range, [speed.slowestObserverRate, speed.slowestControllerRate]));
+  return { L, form, poles, details };
+}
+
+/** The loop as implemented, broken at the plant input (state feedback, or controller + observer). */
+function implementedLoop(model: DesignModel, K: Rows, augmented: { A: Rows; B: Rows }, observer: EstimatorInfo | null, integrated: number[]): StateSpace {
+  if (!observer || integrated.length) {
+    // Full-state feedback (integrators are part of the fed-back state): L = K (λI − A_aug)⁻¹ B_aug.
+    return stateFeedbackLoop(augmented.A, augmented.B, K);
+  }
+  const combined = combinedClosedLoop(model.A, model.B, model.C, model.D, K, observer.L, model.domain, observer.form);
+  return outputFeedbackLoop({ A: model.A, B: model.B, C: model.C, D: model.D }, combined.controller);
+}
+
+/** Open-loop frequency response of the first input's loop (the others open), for the plots. */
+function openLoopFrequencyResponse(model: DesignModel, loop: StateSpace, margins: LoopMarginsResult) {
+  const low = margins.lowestFrequency;
+  const high = model.domain === 'discrete' ? Math.min(margins.highestFrequency, Math.PI / (model.T as number)) : margins.highestFrequency;
+  if (!(low > 0 && high > low)) return undefined;
+  const omega = logarithmicGrid(low, high, 40).slice(0, 400);
+  const response = frequencyResponse(loop.A, loop.B.map((row) => row.slice(0, 1)), loop.C.slice(0, 1), [[loop.D[0]?.[0] ?? 0]], omega, model.domain, model.T ?? undefined);
+  const channel = response.channels[0];
+  if (!channel) return undefined;
+  return { omega: response.omegas, magnitudeDb: channel.magnitudeDb, phaseDeg: channel.phaseDeg, brokenAt: 'first plant input, other loops open' };
+}
+
+function implementationRecord(
+  plant: CheckedPlant,
+  model: DesignModel,
+  report: ControllerReport,
+  observer: EstimatorInfo | null,
+  x0: number[],
+  u0: number[],
+  y0: number[],
+  integrated: number[],
+  tracked: number[],
+): ImplementationReport | null {
+  if (!report.K) return null;
+  const delayNames = Array.from({ length: model.delayStates }, (_, i) => `${plant.inputs[i % plant.inputs.length].name}_previous${model.delayStates > plant.inputs.length ? Math.floor(i / plant.inputs.length) + 1 : ''}`);
+  return {
+    domain: model.domain,
+    samplePeriod: model.T,
+    states: [...plant.states.map((s) => s.name), ...delayNames],
+    inputs: plant.inputs.map((s) => s.name),
+    outputs: plant.outputs.map((s) => s.name),
+    trackedOutputs: tracked.map((i) => plant.outputs[i].name),
+    integratedOutputs: integrated.map((i) => plant.outputs[i].name),
+    K: report.K,
+    Ki: report.Ki,
+    N: report.prescaler,
+    Nx: report.Nx,
+    Nu: report.Nu,
+    observer: observer ? { form: observer.form, L: observer.L, Phi: model.A, Gamma: model.B, C: model.C, D: model.D } : null,
+    x0: [...x0, ...Array.from({ length: model.delayStates }, () => 0)],
+    u0,
+    y0,
+  };
+}
