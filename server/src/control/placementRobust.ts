@@ -131,8 +131,10 @@ export function placeRobustEigenstructure(A: Rows, B: Rows, slots: PoleSlot[], m
 
   let sweeps = 0;
   let converged = false;
-  // Sweeps stop when no unit column moves by more than ε^¼ (KNV's method 0 converges slowly; the
-  // assignment is exact after any sweep, only the conditioning improves).
+  // Sweeps stop when no unit column moves by more than ε^¼, or when a sweep raises log|det V| (the
+  // KNV objective for unit columns; each update multiplies det V by its Sherman–Morrison
+  // denominator) by less than ε^¼. The assignment is exact after any sweep; only the conditioning
+  // improves.
   const changeTolerance = Math.sqrt(Math.sqrt(EPS));
   const pivotTolerance = Math.sqrt(EPS);
   const z = new Float64Array(n);
@@ -144,6 +146,7 @@ export function placeRobustEigenstructure(A: Rows, B: Rows, slots: PoleSlot[], m
     if (!Vinv) break;
     sweeps += 1;
     let largestChange = 0;
+    let logDeterminantGain = 0;
     slots.forEach((slot, s) => {
       const j = offsets[s];
       const basis = bases[s];
@@ -176,6 +179,7 @@ export function placeRobustEigenstructure(A: Rows, B: Rows, slots: PoleSlot[], m
         }
         const denominator = 1 + z[j];
         if (Math.abs(denominator) < pivotTolerance) return;
+        logDeterminantGain += Math.log(Math.abs(denominator));
         for (let k = 0; k < n; k++) rowCopy[k] = Vinv[j * n + k] / denominator;
         for (let i = 0; i < n; i++) {
           const zi = z[i];
@@ -228,6 +232,7 @@ export function placeRobustEigenstructure(A: Rows, B: Rows, slots: PoleSlot[], m
         const c22 = 1 + z2[j + 1];
         const det = c11 * c22 - c12 * c21;
         if (Math.abs(det) < pivotTolerance) return;
+        logDeterminantGain += Math.log(Math.abs(det));
         // (I + EᵀZ)⁻¹·EᵀV⁻¹ as two rows.
         for (let k = 0; k < n; k++) {
           const a = Vinv[j * n + k];
@@ -247,7 +252,7 @@ export function placeRobustEigenstructure(A: Rows, B: Rows, slots: PoleSlot[], m
         largestChange = Math.max(largestChange, Math.sqrt(change));
       }
     });
-    if (largestChange < changeTolerance) {
+    if (largestChange < changeTolerance || (sweeps > 1 && logDeterminantGain < changeTolerance)) {
       converged = true;
       break;
     }
