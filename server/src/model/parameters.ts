@@ -27,6 +27,7 @@ export function evaluateParameters(
   for (const item of plant.items) {
     if (item.kind !== 'param') continue;
     const name = item.name.name;
+    if (name === '') continue; // `param = …`: the syntax error already says the name is missing
     const builtin = isBuiltinName(name);
     if (builtin) {
       out.push(reservedName.create(item.name.range, [name, builtin]));

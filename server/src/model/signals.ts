@@ -60,7 +60,8 @@ export function collectSignals(plant: PlantDecl, out: Diagnostic[]): SignalTable
     table.lines.push(item);
     const role = roleOfKeyword[item.role];
     table.declared[role] = true;
-    for (const id of item.names) addSignal(table, role, id, out);
+    // A missing name (`states` with nothing after it) is a syntax error already; skip it here.
+    for (const id of item.names) if (id.name !== '') addSignal(table, role, id, out);
   }
   return table;
 }
