@@ -104,6 +104,30 @@ describe('language server over stdio', () => {
     expect(unknown?.range).toEqual({ start: { line: 12, character }, end: { line: 12, character: character + 2 } });
   });
 
+  it('settles on the last version after a burst of edits sent without waiting', async () => {
+    const uri = await openAnalysed(HOIST);
+    let text = HOIST;
+    let version = 1;
+    // Type `0.0125` over `0.012` one character at a time, then an unknown name, all at once.
+    for (const [line, character, insert] of [
+      [2, 16, '5'],
+      [2, 17, '0'],
+      [12, 9, 'q'],
+      [12, 10, 'q'],
+    ] as const) {
+      const lines = text.split('\n');
+      lines[line] = lines[line].slice(0, character) + insert + lines[line].slice(character);
+      text = lines.join('\n');
+      version = await session.change(uri, [{ range: { start: { line, character }, end: { line, character } }, text: insert }]);
+    }
+    await session.waitForAnalysis(uri, version);
+    const published = session.published.filter((p) => p.uri === uri);
+    expect(published[published.length - 1].version).toBe(version);
+    expect(published[published.length - 1].diagnostics).toEqual(expectedDiagnostics(text, uri));
+    const versions = published.map((p) => p.version ?? 0);
+    expect(versions.every((v, i) => i === 0 || v >= versions[i - 1])).toBe(true);
+  });
+
   it('answers hover on a param with its value and on a matrix with its shape', async () => {
     const { text, position } = withCursor(HOIST.replace('param kt', 'param k|t'));
     const uri = await openAnalysed(text);

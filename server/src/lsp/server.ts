@@ -67,16 +67,22 @@ const EXPORT_REQUEST = 'loopwright/export';
 const REPORT_REQUEST = 'loopwright/report';
 
 interface DocumentState {
+  /** The text as the editor has it now. */
   document: TextDocument;
+  /** Fast check of `fastVersion` (lags `document` only while a deferred check is pending). */
   fast: FastCheck;
-  /** The slow analysis of `fast` (same version), once it arrived. */
+  fastVersion: number;
+  /** The slow analysis of `fastVersion`, once it arrived. */
   slow: SlowResult | null;
-  /** Slow-only diagnostics of the last analysed version, moved along with later edits. */
-  carried: Diagnostic[];
-  /** The last slow result of any earlier version (lenses and hovers show it, marked stale). */
+  /** The last slow result of an earlier version (lenses and hovers show it, marked stale). */
   previous: SlowResult | null;
-  timer: ReturnType<typeof setTimeout> | null;
-  analysedVersion: number | null;
+  /** Slow-only diagnostics of the last analysed version, moved along with every later edit. */
+  carried: Diagnostic[];
+  fastTimer: ReturnType<typeof setTimeout> | null;
+  slowTimer: ReturnType<typeof setTimeout> | null;
+  /** How long the last fast check took and when it ended (ms), to coalesce bursts on big models. */
+  fastDuration: number;
+  fastEnded: number;
 }
 
 export interface ServerOptions {
@@ -140,62 +146,107 @@ export function startServer(connection: Connection, options: ServerOptions = {})
     });
   }
 
-  function onText(uri: string, document: TextDocument, changes: TextDocumentContentChangeEvent[] | null): void {
-    const previous = documents.get(uri);
-    let carried: Diagnostic[] = [];
-    if (previous && changes) {
-      carried = previous.slow ? previous.slow.slowDiagnostics : previous.carried;
-      for (const change of changes) {
-        if (!('range' in change) || !change.range) {
-          carried = [];
-          break;
-        }
-        const moved: Diagnostic[] = [];
-        for (const diagnostic of carried) {
-          const range = shiftRange(diagnostic.range, { range: change.range, text: change.text });
-          if (range) moved.push({ ...diagnostic, range, related: undefined });
-        }
-        carried = moved;
+  function moveCarried(carried: Diagnostic[], changes: TextDocumentContentChangeEvent[]): Diagnostic[] {
+    let moved = carried;
+    for (const change of changes) {
+      if (!('range' in change) || !change.range) return [];
+      const next: Diagnostic[] = [];
+      for (const diagnostic of moved) {
+        const range = shiftRange(diagnostic.range, { range: change.range, text: change.text });
+        if (range) next.push({ ...diagnostic, range, related: undefined });
       }
+      moved = next;
     }
-    if (previous?.timer) clearTimeout(previous.timer);
-    runner.cancel(uri);
-    let fast: FastCheck;
+    return moved;
+  }
+
+  function stopTimers(state: DocumentState): void {
+    if (state.fastTimer) clearTimeout(state.fastTimer);
+    if (state.slowTimer) clearTimeout(state.slowTimer);
+    state.fastTimer = null;
+    state.slowTimer = null;
+  }
+
+  function openDocument(document: TextDocument): void {
+    const old = documents.get(document.uri);
+    if (old) stopTimers(old);
+    runner.cancel(document.uri);
+    const state: DocumentState = {
+      document,
+      fast: checkText(''),
+      fastVersion: -1,
+      slow: null,
+      previous: null,
+      carried: [],
+      fastTimer: null,
+      slowTimer: null,
+      fastDuration: 0,
+      fastEnded: 0,
+    };
+    documents.set(document.uri, state);
+    runFast(state);
+  }
+
+  function changeDocument(state: DocumentState, changes: TextDocumentContentChangeEvent[], version: number): void {
+    state.document = TextDocument.update(state.document, changes, version);
+    state.carried = moveCarried(state.carried, changes);
+    stopTimers(state);
+    runner.cancel(state.document.uri);
+    // Edits arriving faster than the fast check runs (a big model) are coalesced: the check waits
+    // as long as the last one took, and a newer edit replaces the wait.
+    const sinceLast = performance.now() - state.fastEnded;
+    if (sinceLast >= state.fastDuration) runFast(state);
+    else {
+      state.fastTimer = setTimeout(() => {
+        state.fastTimer = null;
+        if (documents.get(state.document.uri) === state) runFast(state);
+      }, Math.min(state.fastDuration, 250));
+    }
+  }
+
+  /** Fast checks of the current text, published at once; then the slow analyses are scheduled. */
+  function runFast(state: DocumentState): void {
+    const started = performance.now();
     try {
-      fast = checkText(document.getText());
+      state.fast = checkText(state.document.getText());
     } catch (error) {
       log(`fast check failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
       return;
     }
-    const state: DocumentState = {
-      document,
-      fast,
-      slow: null,
-      carried,
-      previous: previous ? previous.slow ?? previous.previous : null,
-      timer: null,
-      analysedVersion: null,
-    };
-    documents.set(uri, state);
-    publish(state, [...fast.diagnostics, ...carried].sort(byPosition));
+    state.fastVersion = state.document.version;
+    state.previous = state.slow ?? state.previous;
+    state.slow = null;
+    state.fastEnded = performance.now();
+    state.fastDuration = state.fastEnded - started;
+    publish(state, [...state.fast.diagnostics, ...state.carried].sort(byPosition));
     scheduleSlow(state);
   }
 
+  /** Brings the fast check up to the current text (before answering with edits). */
+  function flush(state: DocumentState): DocumentState {
+    if (state.fastTimer || state.fastVersion !== state.document.version) {
+      if (state.fastTimer) clearTimeout(state.fastTimer);
+      state.fastTimer = null;
+      runFast(state);
+    }
+    return state;
+  }
+
   function scheduleSlow(state: DocumentState): void {
-    const run = () => {
-      state.timer = null;
-      if (documents.get(state.document.uri) !== state) return;
-      void analyseSlow(state);
-    };
-    // Even without debounce, wait one turn: edits already queued then replace this one cheaply.
-    state.timer = setTimeout(run, Math.max(0, settings.debounceMs));
+    if (state.slowTimer) clearTimeout(state.slowTimer);
+    // Even without debounce, wait one turn: an edit already queued then replaces this one cheaply.
+    state.slowTimer = setTimeout(() => {
+      state.slowTimer = null;
+      if (documents.get(state.document.uri) === state) void analyseSlow(state);
+    }, Math.max(0, settings.debounceMs));
   }
 
   async function analyseSlow(state: DocumentState): Promise<void> {
     const uri = state.document.uri;
-    const version = state.document.version;
+    const version = state.fastVersion;
     const outcome = await runner.analyse(uri, version, state.fast.text, settings.analysis);
-    if (documents.get(uri) !== state || state.document.version !== version) return; // stale: never published
+    // A result for an older text is never published.
+    if (documents.get(uri) !== state || state.fastVersion !== version || state.document.version !== version) return;
     if ('superseded' in outcome) return;
     if ('error' in outcome) {
       log(`analysis of ${uri} (version ${version}) failed: ${outcome.error}`);
@@ -203,10 +254,9 @@ export function startServer(connection: Connection, options: ServerOptions = {})
       publish(state, state.fast.diagnostics);
     } else {
       state.slow = outcome.result;
-      state.carried = [];
+      state.carried = outcome.result.slowDiagnostics;
       publish(state, outcome.result.diagnostics);
     }
-    state.analysedVersion = version;
     void connection.sendNotification(ANALYSIS_UPDATED, { uri, version });
     if (capabilities.workspace?.codeLens?.refreshSupport) void connection.sendRequest(CodeLensRefreshRequest.type).catch(() => undefined);
     if (capabilities.workspace?.inlayHint?.refreshSupport) void connection.languages.inlayHint.refresh().catch(() => undefined);
@@ -224,11 +274,9 @@ export function startServer(connection: Connection, options: ServerOptions = {})
 
   function reanalyseAll(): void {
     for (const state of documents.values()) {
-      state.previous = state.slow ?? state.previous;
-      state.slow = null;
-      if (state.timer) clearTimeout(state.timer);
+      stopTimers(state);
       runner.cancel(state.document.uri);
-      scheduleSlow(state);
+      runFast(state);
     }
   }
 
@@ -284,15 +332,18 @@ export function startServer(connection: Connection, options: ServerOptions = {})
 
   connection.onDidOpenTextDocument((params) => {
     const { uri, languageId, version, text } = params.textDocument;
-    onText(uri, TextDocument.create(uri, languageId, version, text), null);
+    try {
+      openDocument(TextDocument.create(uri, languageId, version, text));
+    } catch (error) {
+      log(`open failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
+    }
   });
 
   connection.onDidChangeTextDocument((params) => {
     const state = documents.get(params.textDocument.uri);
     if (!state) return;
     try {
-      const document = TextDocument.update(state.document, params.contentChanges, params.textDocument.version);
-      onText(params.textDocument.uri, document, params.contentChanges);
+      changeDocument(state, params.contentChanges, params.textDocument.version);
     } catch (error) {
       log(`change failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
     }
@@ -301,7 +352,7 @@ export function startServer(connection: Connection, options: ServerOptions = {})
   connection.onDidCloseTextDocument((params) => {
     const uri = params.textDocument.uri;
     const state = documents.get(uri);
-    if (state?.timer) clearTimeout(state.timer);
+    if (state) stopTimers(state);
     runner.cancel(uri);
     documents.delete(uri);
     void connection.sendDiagnostics({ uri, diagnostics: [] });
@@ -369,7 +420,7 @@ export function startServer(connection: Connection, options: ServerOptions = {})
     guard('code actions', [], (params) => {
       const state = stateOf(params.textDocument.uri);
       if (!state) return [];
-      const view = viewOf(state);
+      const view = viewOf(flush(state));
       // Prefer our own record of each diagnostic (the client may drop `data`).
       const pairs = params.context.diagnostics.map((lsp) => {
         const own = view.diagnostics.find(
@@ -398,14 +449,14 @@ export function startServer(connection: Connection, options: ServerOptions = {})
   connection.onDocumentFormatting(
     guard('formatting', [], (params) => {
       const state = stateOf(params.textDocument.uri);
-      return state ? formatDocument(state.fast.text).map(toLspTextEdit) : [];
+      return state ? formatDocument(flush(state).fast.text).map(toLspTextEdit) : [];
     }),
   );
 
   connection.onPrepareRename(
     guard('prepare rename', null, (params) => {
       const state = stateOf(params.textDocument.uri);
-      return state ? prepareRename(state.fast, params.position) : null;
+      return state ? prepareRename(flush(state).fast, params.position) : null;
     }),
   );
 
@@ -414,7 +465,7 @@ export function startServer(connection: Connection, options: ServerOptions = {})
     if (!state) return null;
     let result;
     try {
-      result = renameAt(state.fast, params.position, params.newName);
+      result = renameAt(flush(state).fast, params.position, params.newName);
     } catch (error) {
       log(`rename failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
       return null;
@@ -501,7 +552,7 @@ export function startServer(connection: Connection, options: ServerOptions = {})
   );
 
   connection.onShutdown(() => {
-    for (const state of documents.values()) if (state.timer) clearTimeout(state.timer);
+    for (const state of documents.values()) stopTimers(state);
     runner.dispose();
   });
 
