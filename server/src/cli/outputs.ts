@@ -9,6 +9,7 @@ import { renderExportJson } from '../render/exportJson';
 import { renderHtmlReport } from '../render/html';
 import { diagnosticLine } from '../render/text';
 import type { ExportCommand, ReportCommand } from './arguments';
+import type { Range } from '../model/types';
 
 const TOOL = 'loopwright';
 const VERSION = '0.1.0';
@@ -64,7 +65,16 @@ export function runExport(command: ExportCommand, readSource: (path: string) => 
     return 2;
   }
   const report = analysis.controllers[index];
-  if (!report?.designed || !report.implementation) {
+  const controller = analysis.model.controllers[index];
+  const plant = controller.plantIndex === null ? undefined : analysis.model.plants[controller.plantIndex];
+  const inside = (range: Range, outer: Range) =>
+    (range.start.line > outer.start.line || (range.start.line === outer.start.line && range.start.character >= outer.start.character)) &&
+    (range.end.line < outer.end.line || (range.end.line === outer.end.line && range.end.character <= outer.end.character));
+  // A design with an error on its controller or plant is never exported (the gains would not do what they claim).
+  const blocking = analysis.diagnostics.filter(
+    (d) => d.severity === 'error' && (inside(d.range, controller.range) || (plant !== undefined && inside(d.range, plant.range))),
+  );
+  if (!report?.designed || !report.implementation || blocking.length) {
     process.stderr.write(`loopwright: controller '${names[index]}' has no valid design to export\n`);
     printErrors(source.path, analysis);
     return 1;
