@@ -26,7 +26,7 @@ const plantReport = {
   unobservableModes: [],
   controllabilityMargin: 0.0123456,
   observabilityMargin: null,
-  transferFunctions: [],
+  transferFunctions: [{ input: 'current', output: 'height', numerator: [0, 0, 0.3333333], denominator: [1, 1 / 3, 0], zeros: [], poles: [] }],
   invariantZeros: [],
 } as unknown as PlantReport;
 
@@ -84,6 +84,7 @@ describe('rendering engine records', () => {
     expect(markdown).toContain('| controllable | yes |');
     expect(markdown).toContain('| controllability margin | 0.01235 |');
     expect(markdown).toContain('| invariant zeros | none |');
+    expect(markdown).toContain('height ← current: (0.3333) / (s^2 + 0.3333 s)');
   });
 
   it('shows gains, prescaler, poles and step metrics of a controller', () => {

@@ -4,7 +4,7 @@
 import type { Position, Range } from '../../../grammar/src/ast';
 import type { Complex, Rows } from '../model/types';
 import type { ControllerReport, ModeReport, PlantReport } from '../control/design';
-import { escapeMarkdown, formatComplex, formatNumber, formatRows, shapeOf, withUnit } from './numbers';
+import { escapeMarkdown, formatComplex, formatNumber, formatPolynomial, formatRows, shapeOf, withUnit } from './numbers';
 import { declarationAtOffset, occurrenceAtOffset, symbolIndex, type Definition } from './symbolIndex';
 import { lineText, offsetAt, rangeContains } from './text';
 import {
@@ -144,6 +144,14 @@ export function plantReportMarkdown(report: PlantReport): string {
       `| invariant zeros | ${report.invariantZeros.length === 0 ? 'none' : report.invariantZeros.map((z) => formatComplex(z)).join(', ')} |`,
     );
   parts.push(structure.join('\n'));
+  const shown = report.transferFunctions.slice(0, 4);
+  if (shown.length > 0) {
+    const lines = shown.map(
+      (tf) => `${tf.output} ← ${tf.input}: (${formatPolynomial(tf.numerator)}) / (${formatPolynomial(tf.denominator)})`,
+    );
+    if (report.transferFunctions.length > shown.length) lines.push(`… ${report.transferFunctions.length - shown.length} more`);
+    parts.push('Transfer functions:\n```\n' + lines.join('\n') + '\n```');
+  }
   return parts.join('\n\n');
 }
 

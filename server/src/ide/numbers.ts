@@ -60,3 +60,20 @@ export function shapeOf(rows: Rows): string {
 export function escapeMarkdown(text: string): string {
   return text.replace(/([\\`*_{}\[\]<>|])/g, '\\$1');
 }
+
+/** A polynomial in s from coefficients, highest power first: `0.5 s + 2`, `s^2 + 4 s + 5`. */
+export function formatPolynomial(coefficients: number[], digits = 4): string {
+  const degree = coefficients.length - 1;
+  const terms: string[] = [];
+  coefficients.forEach((coefficient, index) => {
+    if (coefficient === 0) return;
+    const power = degree - index;
+    const magnitude = Math.abs(coefficient);
+    const number = magnitude === 1 && power > 0 ? '' : formatNumber(magnitude, digits);
+    const variable = power === 0 ? '' : power === 1 ? 's' : `s^${power}`;
+    const body = [number, variable].filter(Boolean).join(' ');
+    if (terms.length === 0) terms.push(coefficient < 0 ? `-${body}` : body);
+    else terms.push(coefficient < 0 ? `- ${body}` : `+ ${body}`);
+  });
+  return terms.length === 0 ? '0' : terms.join(' ');
+}
