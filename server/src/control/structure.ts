@@ -10,8 +10,6 @@ import {
   EPS,
   eigenvaluesOf,
   frobenius,
-  multiplyRows,
-  orthogonalComplement,
   singularValuesOf,
   thinSvd,
   transposeRows,
@@ -49,41 +47,91 @@ export function structureTolerance(A: Rows, B: Rows): number {
 export function controllabilityStaircase(A: Rows, B: Rows, tolerance = structureTolerance(A, B)): StaircaseForm {
   const n = A.length;
   const m = n === 0 ? 0 : (B[0]?.length ?? 0);
-  let Abar = A.map((row) => row.slice());
-  let Bbar = B.map((row) => row.slice());
-  let T = identityRows(n);
+  // Flat row-major working copies; every step applies Householder reflectors to the trailing rows
+  // and columns only, so the whole reduction costs O(n³) rather than O(n⁴).
+  const Ab = new Float64Array(n * n);
+  const Bb = new Float64Array(n * m);
+  const T = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) Ab[i * n + j] = A[i][j];
+    for (let j = 0; j < m; j++) Bb[i * m + j] = B[i][j];
+    T[i * n + i] = 1;
+  }
+  const applyReflector = (v: Float64Array, beta: number, start: number) => {
+    // Left on Ā and B̄ (rows start…n−1), right on Ā and T (columns start…n−1).
+    for (let j = 0; j < n; j++) {
+      let dot = 0;
+      for (let i = start; i < n; i++) dot += v[i - start] * Ab[i * n + j];
+      const f = beta * dot;
+      if (f !== 0) for (let i = start; i < n; i++) Ab[i * n + j] -= f * v[i - start];
+    }
+    for (let j = 0; j < m; j++) {
+      let dot = 0;
+      for (let i = start; i < n; i++) dot += v[i - start] * Bb[i * m + j];
+      const f = beta * dot;
+      if (f !== 0) for (let i = start; i < n; i++) Bb[i * m + j] -= f * v[i - start];
+    }
+    for (let i = 0; i < n; i++) {
+      let dotA = 0;
+      let dotT = 0;
+      for (let j = start; j < n; j++) {
+        dotA += Ab[i * n + j] * v[j - start];
+        dotT += T[i * n + j] * v[j - start];
+      }
+      const fA = beta * dotA;
+      const fT = beta * dotT;
+      if (fA !== 0) for (let j = start; j < n; j++) Ab[i * n + j] -= fA * v[j - start];
+      if (fT !== 0) for (let j = start; j < n; j++) T[i * n + j] -= fT * v[j - start];
+    }
+  };
   const blockSizes: number[] = [];
   let offset = 0;
   let previousOffset = 0;
   let first = true;
   while (offset < n) {
-    // Current block: B̄[offset:, :] on the first step, Ā[offset:, previousOffset:offset] after.
+    const rows = n - offset;
+    const cols = first ? m : offset - previousOffset;
+    if (cols === 0) break;
     const block: Rows = [];
     for (let i = offset; i < n; i++) {
-      block.push(first ? Bbar[i].slice() : Abar[i].slice(previousOffset, offset));
+      const row = new Array<number>(cols);
+      for (let j = 0; j < cols; j++) row[j] = first ? Bb[i * m + j] : Ab[i * n + previousOffset + j];
+      block.push(row);
     }
-    if (block[0].length === 0) break;
     const { U, s } = thinSvd(block);
     const rank = s.filter((value) => value > tolerance).length;
     if (rank === 0) break;
-    // Full orthogonal basis [U_r, U_⊥] of the remaining rows.
-    const rows = n - offset;
-    const Ur = new Float64Array(rows * rank);
-    for (let i = 0; i < rows; i++) for (let j = 0; j < rank; j++) Ur[i * rank + j] = U[i][j];
-    const complement = orthogonalComplement(Ur, rows, rank);
-    const W = identityRows(n);
-    for (let i = 0; i < rows; i++) {
-      for (let j = 0; j < rank; j++) W[offset + i][offset + j] = U[i][j];
-      for (let j = 0; j < rows - rank; j++) W[offset + i][offset + rank + j] = complement[j * rows + i];
+    // Householder QR of U_r: Q = H₁…H_r has range(U_r) as its first r columns.
+    const work = new Float64Array(rows * rank);
+    for (let i = 0; i < rows; i++) for (let j = 0; j < rank; j++) work[i * rank + j] = U[i][j];
+    for (let j = 0; j < rank; j++) {
+      const length = rows - j;
+      const v = new Float64Array(length);
+      let normSq = 0;
+      for (let i = 0; i < length; i++) {
+        v[i] = work[(j + i) * rank + j];
+        normSq += v[i] * v[i];
+      }
+      const norm = Math.sqrt(normSq);
+      if (norm === 0) continue;
+      const alpha = v[0] >= 0 ? -norm : norm;
+      const x0 = v[0];
+      v[0] -= alpha;
+      const vNormSq = normSq - 2 * alpha * x0 + alpha * alpha;
+      if (vNormSq === 0) continue;
+      const beta = 2 / vNormSq;
+      for (let c = j; c < rank; c++) {
+        let dot = 0;
+        for (let i = 0; i < length; i++) dot += v[i] * work[(j + i) * rank + c];
+        const f = beta * dot;
+        for (let i = 0; i < length; i++) work[(j + i) * rank + c] -= f * v[i];
+      }
+      applyReflector(v, beta, offset + j);
     }
-    const Wt = transposeRows(W);
-    Abar = multiplyRows(multiplyRows(Wt, Abar), W);
-    Bbar = multiplyRows(Wt, Bbar);
-    T = multiplyRows(T, W);
     // Clean the entries the rank decision declared zero, so the block structure is exact.
     for (let i = offset + rank; i < n; i++) {
-      if (first) for (let j = 0; j < m; j++) Bbar[i][j] = 0;
-      else for (let j = previousOffset; j < offset; j++) Abar[i][j] = 0;
+      if (first) for (let j = 0; j < m; j++) Bb[i * m + j] = 0;
+      else for (let j = previousOffset; j < offset; j++) Ab[i * n + j] = 0;
     }
     blockSizes.push(rank);
     previousOffset = offset;
@@ -91,8 +139,10 @@ export function controllabilityStaircase(A: Rows, B: Rows, tolerance = structure
     first = false;
   }
   // Below the controllable part everything in the first `offset` columns is exactly zero.
-  for (let i = offset; i < n; i++) for (let j = 0; j < offset; j++) Abar[i][j] = 0;
-  return { T, Abar, Bbar, controllableDimension: offset, blockSizes, rankTolerance: tolerance };
+  for (let i = offset; i < n; i++) for (let j = 0; j < offset; j++) Ab[i * n + j] = 0;
+  const toRows = (data: Float64Array, cols: number): Rows =>
+    Array.from({ length: n }, (_, i) => Array.from(data.subarray(i * cols, (i + 1) * cols)));
+  return { T: toRows(T, n), Abar: toRows(Ab, n), Bbar: toRows(Bb, m), controllableDimension: offset, blockSizes, rankTolerance: tolerance };
 }
 
 export interface UncontrollableMode {
