@@ -288,7 +288,8 @@ export function startServer(connection: Connection, options: ServerOptions = {})
       capabilities: {
         textDocumentSync: { openClose: true, change: TextDocumentSyncKind.Incremental, save: false },
         hoverProvider: true,
-        completionProvider: { triggerCharacters: [' ', ',', '(', '['], resolveProvider: false },
+        // No trigger characters: a list popping up after a space or comma would take the Enter of a matrix row.
+        completionProvider: { resolveProvider: false },
         signatureHelpProvider: { triggerCharacters: ['(', ','], retriggerCharacters: [','] },
         definitionProvider: true,
         referencesProvider: true,
