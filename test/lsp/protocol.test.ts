@@ -1,7 +1,7 @@
 // The bundled server over stdio, driven by a real JSON-RPC client: sync, diagnostics,
 // hover, lenses, quick fixes, rename, formatting, completion, outline.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { analyze } from '../../server/src/analyze';
+import { analyze, checkText } from '../../server/src/analyze';
 import { toLspDiagnostic } from '../../server/src/lsp/convert';
 import { codeLenses } from '../../server/src/ide/codeLens';
 import { formatText } from '../../server/src/ide/format';
@@ -174,6 +174,42 @@ describe('language server over stdio', () => {
     await session.waitForAnalysis(uri, version);
     const after = session.lastDiagnostics(uri)!;
     expect(after.diagnostics.filter((d) => d.code === target!.code)).toEqual([]);
+  });
+
+  it('fixes a finding of the slow analysis through its quick fix', async () => {
+    const uri = await openAnalysed(HOIST);
+    const published = session.lastDiagnostics(uri)!;
+    const fastCodes = new Set(checkText(HOIST).diagnostics.map((d) => d.code));
+    const target = published.diagnostics.find((d) => !fastCodes.has(String(d.code)) && (d.data as { fix?: string } | undefined)?.fix);
+    expect(target, JSON.stringify(published.diagnostics)).toBeDefined();
+    const actions = await session.request<{ title: string; edit: { changes: Record<string, never[]> } }[]>('textDocument/codeAction', {
+      textDocument: { uri },
+      range: target!.range,
+      context: { diagnostics: [target] },
+    });
+    expect(actions.length).toBeGreaterThan(0);
+    const fixed = applyLspEdits(HOIST, actions[0].edit.changes[uri]);
+    const version = await session.change(uri, [{ text: fixed }]);
+    await session.waitForAnalysis(uri, version);
+    const after = session.lastDiagnostics(uri)!.diagnostics;
+    expect(after).toEqual(expectedDiagnostics(fixed, uri));
+    expect(after.filter((d) => d.code === target!.code)).toEqual([]);
+  });
+
+  it('keeps the slow findings, moved with the edit, in the fast publication', async () => {
+    const uri = await openAnalysed(HOIST);
+    const before = session.lastDiagnostics(uri)!.diagnostics;
+    const fastCodes = new Set(checkText(HOIST).diagnostics.map((d) => d.code));
+    const slow = before.filter((d) => !fastCodes.has(String(d.code)));
+    expect(slow.length).toBeGreaterThan(0);
+    // Insert a comment line at the top: every finding moves one line down.
+    const version = await session.change(uri, [{ range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } }, text: '# note\n' }]);
+    const fast = await session.waitForDiagnostics((p) => p.uri === uri && p.version === version);
+    for (const finding of slow) {
+      const moved = fast.diagnostics.find((d) => d.code === finding.code && d.message === finding.message);
+      expect(moved?.range.start.line, finding.code as string).toBe(finding.range.start.line + 1);
+    }
+    await session.waitForAnalysis(uri, version);
   });
 
   it('renames a plant output in the plant and in the controllers that use it', async () => {
