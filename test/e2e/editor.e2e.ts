@@ -1,7 +1,7 @@
 // The extension in a real editor: language mode and highlighting, diagnostics (problems view and
 // squiggles), hover, code lens, the integral-action quick fix, and the response panel.
 // Expected numbers are worked out by hand in the comments beside each check.
-import { readFileSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { repoRoot, startEditor, type Editor } from './harness';
@@ -71,9 +71,12 @@ describe('Loopwright in a real editor', () => {
         async () => {
           await page.mouse.move(0, 0);
           await name.hover();
-          return hover.isVisible();
+          return hover.waitFor({ timeout: 5000 }).then(
+            () => true,
+            () => false,
+          );
         },
-        { timeout: 60_000, interval: 1000 },
+        { timeout: 60_000, interval: 500 },
       )
       .toBe(true);
     const text = await hover.innerText();
@@ -92,6 +95,39 @@ describe('Loopwright in a real editor', () => {
     // Poles −4 ± 3j ask for s² + 8s + 25, so with kt/J = 20/3: k1 = 25·3/20 = 3.75, k2 = (8 − 1/3)·3/20 = 1.15.
     expect(text).toMatch(/3\.75/);
     expect(text).toMatch(/1\.15/);
+  });
+
+  it('copies the gains to the clipboard from the code lens', async () => {
+    await editor.openFile('hoist.plant');
+    const page = editor.page;
+    const lens = page.locator('.editor-instance .codelens-decoration a', { hasText: /K\s*=/ }).first();
+    await lens.waitFor({ timeout: 60_000 });
+    await lens.click();
+    await expect.poll(() => page.evaluate(() => navigator.clipboard.readText()), { timeout: 30_000 }).toMatch(/K\s*=/);
+    const copied = await page.evaluate(() => navigator.clipboard.readText());
+    // Same gains as worked out by hand above: k1 = 3.75, k2 = 1.15.
+    const gains = copied.match(/K\s*=\s*\[([^\]]*)\]/)![1].split(/[,;\s]+/).filter(Boolean).map(Number);
+    expect(gains).toHaveLength(2);
+    expect(gains[0]).toBeCloseTo(3.75, 9);
+    expect(gains[1]).toBeCloseTo(1.15, 9);
+  });
+
+  it('exports the gains as JSON to the file chosen in the save dialog', async () => {
+    await editor.openFile('hoist.plant');
+    const page = editor.page;
+    await editor.runCommand('Loopwright: Export Gains…');
+    const input = page.locator('.quick-input-widget input');
+    await page.locator('.quick-input-list .monaco-list-row', { hasText: 'JSON' }).first().click();
+    // The editor's own save dialog (a path field) proposes lift-gains.json beside the model.
+    await expect.poll(() => input.inputValue(), { timeout: 30_000 }).toMatch(/lift-gains\.json$/);
+    await page.keyboard.press('Enter');
+    const target = join(editor.workspace, 'lift-gains.json');
+    await expect.poll(() => existsSync(target), { timeout: 30_000 }).toBe(true);
+    const exported = readFileSync(target, 'utf8');
+    const { K } = JSON.parse(exported) as { K: number[][] };
+    // k1 = 3.75, k2 = 1.15 (worked out by hand above).
+    expect(K[0][0]).toBeCloseTo(3.75, 9);
+    expect(K[0][1]).toBeCloseTo(1.15, 9);
   });
 
   it('adds integral action through the quick fix and the fragility warning goes away', async () => {

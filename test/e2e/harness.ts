@@ -255,13 +255,18 @@ export async function startEditor(options: StartOptions = {}): Promise<Editor> {
         await input.fill(`>${title}`);
         await page.locator('.quick-input-list .monaco-list-row', { hasText: title }).first().waitFor();
         await page.keyboard.press('Enter');
-        await page.locator('.quick-input-widget').waitFor({ state: 'hidden' });
+        // Done when the palette closed or a command's own picker replaced it.
+        await page.waitForFunction(() => {
+          const widget = document.querySelector<HTMLElement>('.quick-input-widget');
+          const field = widget?.querySelector('input');
+          return !widget || widget.style.display === 'none' || !field?.value.startsWith('>');
+        });
       },
       async goTo(line, column = 1) {
         await page.keyboard.press('Control+G');
         const input = page.locator('.quick-input-widget input');
         await input.waitFor({ state: 'visible' });
-        await input.fill(`${line}:${column}`);
+        await input.fill(`:${line}:${column}`); // the ':' prefix selects "go to line" in the quick input
         await page.keyboard.press('Enter');
         await page.locator('.quick-input-widget').waitFor({ state: 'hidden' });
       },
