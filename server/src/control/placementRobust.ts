@@ -9,6 +9,7 @@
 // necessarily defective; the caller falls back).
 import { Matrix, inverse } from 'ml-matrix';
 import type { Rows } from '../numeric/types';
+import { countIterations } from '../numeric/iterationCount';
 import { EPS, orthogonalComplement, solveRows, thinSvd, transposeRows } from './controlLinearAlgebra';
 import { slotWidth, type PoleSlot } from './poleSlots';
 
@@ -142,6 +143,7 @@ export function placeRobustEigenstructure(A: Rows, B: Rows, slots: PoleSlot[], m
   const rowCopy = new Float64Array(n);
   const rowCopy2 = new Float64Array(n);
   while (sweeps < maxSweeps) {
+    countIterations();
     const Vinv = invert();
     if (!Vinv) break;
     sweeps += 1;

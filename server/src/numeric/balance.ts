@@ -5,6 +5,7 @@
 
 import { type Dense, denseFromRows, denseToRows, scaledNorm2 } from './dense';
 import type { Rows } from './types';
+import { countIterations } from './iterationCount';
 
 const RADIX = 2;
 const SAFE_MIN = 2.2250738585072014e-308;
@@ -28,6 +29,7 @@ export function balanceDense(matrix: Dense): BalancedDense {
   const safeMax2 = 1 / safeMin2;
   const column = new Float64Array(n);
   for (let sweep = 0; sweep < MAX_SWEEPS; sweep++) {
+    countIterations();
     let changed = false;
     for (let i = 0; i < n; i++) {
       for (let k = 0; k < n; k++) column[k] = a[k * n + i];

@@ -39,3 +39,4 @@ export {
   type GeneralizedEigenvalues,
 } from './qz';
 export { invariantZeros, type InvariantZerosResult } from './invariantZeros';
+export * from './iterationCount';

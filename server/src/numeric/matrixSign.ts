@@ -8,6 +8,7 @@
 import { type Dense, denseFromRows, denseToRows, identityDense, norm1Dense, zerosDense } from './dense';
 import { luFactor, luSolveDense } from './lu';
 import type { Rows } from './types';
+import { countIterations, noteNonConvergence } from './iterationCount';
 
 export interface MatrixSignResult {
   S: Rows;
@@ -27,6 +28,7 @@ export function matrixSignDense(A: Dense): { S: Dense; converged: boolean; itera
   const tolerance = n * Math.sqrt(n) * Number.EPSILON * 10;
   let scalingActive = true;
   for (let iteration = 1; iteration <= MAX_ITERATIONS; iteration++) {
+    countIterations();
     const factor = luFactor({ rows: n, cols: n, data: z });
     if (factor.hasZeroPivot) break;
     let logDet = 0;
@@ -46,6 +48,7 @@ export function matrixSignDense(A: Dense): { S: Dense; converged: boolean; itera
     if (change < 1e-2) scalingActive = false;
     if (change <= tolerance) return { S: { rows: n, cols: n, data: z }, converged: true, iterations: iteration };
   }
+  noteNonConvergence('matrix-sign');
   return failed(n, MAX_ITERATIONS);
 }
 

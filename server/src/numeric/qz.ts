@@ -7,6 +7,7 @@
 
 import { type Dense, denseFromRows, normFrobeniusDense } from './dense';
 import type { Complex, Rows } from './types';
+import { countIterations, noteNonConvergence } from './iterationCount';
 
 export interface GeneralizedEigenvalues {
   /** λ_i = alpha_i / beta_i; beta_i ≥ 0, and beta_i ≈ 0 marks an infinite eigenvalue. */
@@ -231,8 +232,12 @@ export function generalizedEigenvaluesDense(A: Dense, B: Dense): GeneralizedEige
       sinceDeflation = 0;
       continue;
     }
-    if (totalSweeps >= sweepLimit) return { alpha, beta, converged: false };
+    if (totalSweeps >= sweepLimit) {
+      noteNonConvergence('qz');
+      return { alpha, beta, converged: false };
+    }
     totalSweeps++;
+    countIterations();
     sinceDeflation++;
     doubleShiftSweep(h, t, n, lo, hi, sinceDeflation % 10 === 0);
   }

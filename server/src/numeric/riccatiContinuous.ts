@@ -24,6 +24,7 @@ import { matrixSignDense } from './matrixSign';
 import { eigenvaluesOfQuasiTriangular, realSchurDense } from './schur';
 import { orderedRealSchurDense } from './schurReorder';
 import type { Complex, Rows } from './types';
+import { countIterations } from './iterationCount';
 
 const EPS = Number.EPSILON;
 const MAX_NEWTON_STEPS = 10;
@@ -347,6 +348,7 @@ export function solveContinuousRiccati(
   let residual = continuousNormalisedResidual(Abar, G, Qbar, X);
   let newtonSteps = 0;
   for (let step = 0; step < MAX_NEWTON_STEPS && residual > n * EPS; step++) {
+    countIterations();
     const closedLoop = combine(Abar, 1, multiplyDense(G, X), -1);
     const correction = solveLyapunovContinuousDense(transposeDense(closedLoop), continuousResidualMatrix(Abar, G, Qbar, X));
     if (!correction.ok) break;

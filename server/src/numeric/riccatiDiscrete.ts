@@ -33,6 +33,7 @@ import {
 } from './riccatiContinuous';
 import { realSchurDense } from './schur';
 import type { Rows } from './types';
+import { countIterations, noteNonConvergence } from './iterationCount';
 
 const EPS = Number.EPSILON;
 const MAX_DOUBLINGS = 60;
@@ -83,6 +84,7 @@ function structurePreservingDoubling(
   let Hk = Qbar;
   const identity = identityDense(n);
   for (let k = 0; k < MAX_DOUBLINGS; k++) {
+    countIterations();
     const W = combine(identity, 1, multiplyDense(Gk, Hk), 1);
     const factor = luFactor(W);
     if (factor.hasZeroPivot) return null;
@@ -106,6 +108,7 @@ function structurePreservingDoubling(
     // Quadratic convergence: once the update is at rounding level of H the iteration is done.
     if (change <= n * EPS * normFrobeniusDense(Hk)) return { X: Hk, converged: true };
   }
+  noteNonConvergence('riccati-doubling');
   return { X: Hk, converged: false };
 }
 
@@ -147,6 +150,7 @@ export function solveDiscreteRiccati(
   let newtonSteps = 0;
   const maxNewtonSteps = options.maxNewtonSteps ?? MAX_NEWTON_STEPS;
   for (let step = 0; step < maxNewtonSteps && residual > n * EPS; step++) {
+    countIterations();
     // Acᵀ Δ Ac − Δ + Res = 0
     const correction = solveLyapunovDiscreteDense(transposeDense(terms.closedLoop), terms.residual);
     if (!correction.ok) break;

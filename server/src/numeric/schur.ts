@@ -8,6 +8,7 @@ import { type Dense, denseFromRows, denseToRows, transposeDense } from './dense'
 import { hessenbergDense } from './hessenberg';
 import { generateHouseholder } from './householder';
 import type { Complex, Rows } from './types';
+import { countIterations, noteNonConvergence } from './iterationCount';
 
 export interface RealSchurOptions {
   /**
@@ -246,6 +247,7 @@ export function hessenbergQr(
       }
       if (sweepsLeft <= 0) break;
       sweepsLeft--;
+      countIterations();
       sinceDeflation++;
       const i1 = computeT ? 0 : l;
       const i2 = computeT ? n - 1 : i;
@@ -405,7 +407,10 @@ export function hessenbergQr(
         }
       }
     }
-    if (!deflated) return { converged: false, eigenvalues };
+    if (!deflated) {
+      noteNonConvergence('schur-qr');
+      return { converged: false, eigenvalues };
+    }
     if (l === i) {
       eigenvalues[i] = { re: h[i * n + i], im: 0 };
     } else {

@@ -8,6 +8,7 @@
 import { type Dense, denseFromRows, denseToRows, scaledNorm2, transposeDense } from './dense';
 import { extractR, formQ, householderQrDense } from './qr';
 import type { Rows } from './types';
+import { countIterations, noteNonConvergence } from './iterationCount';
 
 const EPS = Number.EPSILON;
 const MAX_SWEEPS = 60;
@@ -30,6 +31,7 @@ function jacobiOrthogonaliseColumns(columns: Float64Array, k: number, rotations:
   const tolerance = k * EPS;
   const norms = new Float64Array(k);
   for (let sweep = 0; sweep < MAX_SWEEPS; sweep++) {
+    countIterations();
     let rotated = false;
     for (let j = 0; j < k; j++) {
       let sum = 0;
@@ -72,6 +74,7 @@ function jacobiOrthogonaliseColumns(columns: Float64Array, k: number, rotations:
     }
     if (!rotated) return true;
   }
+  noteNonConvergence('svd-jacobi');
   return false;
 }
 
