@@ -335,3 +335,19 @@ describe('outline, folding, tokens, hints, signatures', () => {
     expect(help.activeParameter).toBe(1);
   });
 });
+
+describe('number display', () => {
+  it('keeps 4–6 significant digits, whole numbers in full, exponents only far out', async () => {
+    const { formatNumber, formatComplex } = await import('../../server/src/ide/numbers');
+    expect(formatNumber(3.7500000000000013)).toBe('3.75');
+    expect(formatNumber(0.333333333, 4)).toBe('0.3333');
+    expect(formatNumber(39701.2, 4)).toBe('39701');
+    expect(formatNumber(-36980.4)).toBe('-36980');
+    expect(formatNumber(2.5e7)).toBe('2.5e7');
+    expect(formatNumber(-4.6853e-5)).toBe('-4.6853e-5');
+    expect(formatNumber(0)).toBe('0');
+    expect(formatComplex({ re: -4, im: -3 })).toBe('-4 - 3j');
+    expect(formatComplex({ re: 0, im: 2 })).toBe('2j');
+    expect(formatComplex({ re: -2, im: 1e-20 })).toBe('-2');
+  });
+});

@@ -12,6 +12,8 @@ export function formatNumber(value: number, digits = 5): string {
     const [mantissa, exponent] = value.toExponential(digits - 1).split('e');
     return `${trimZeros(mantissa)}e${exponent.replace('+', '')}`;
   }
+  // Whole numbers wider than the digit budget print in full (45600, not 4.56e4): gains read better.
+  if (magnitude >= 10 ** digits) return String(Math.round(value));
   return trimZeros(value.toPrecision(digits));
 }
 
