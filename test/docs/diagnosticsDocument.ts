@@ -81,7 +81,7 @@ export function renderDiagnosticsDocument(): string {
     '<!-- Generated from the diagnostic registries by test/docs/diagnosticsDocument.ts; do not edit by hand.',
     '     Regenerate with: UPDATE_FIXTURES=1 npx vitest run test/docs -->',
     '',
-    'Every diagnostic has a stable `code`, a `severity` (`error`, `warning`, `information`, `hint`), a one-line',
+    'Every diagnostic has a stable `code`, a `severity` (`error`, `warning` or `info`), a one-line',
     '`message`, the `range` of the text responsible (0-based lines, UTF-16 characters), optional `related`',
     'locations pointing at the cause, and optional `data`. Where the editor offers a quick fix, `data.fix` names it',
     '(the last column); the other `data` fields carry what the fix needs. A code never changes meaning; messages',
