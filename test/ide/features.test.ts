@@ -253,6 +253,18 @@ describe('quick fixes from diagnostic data', () => {
     expect(checkText(fixed).parse.diagnostics).toEqual([]);
   });
 
+  it('inserts after the line the engine names', () => {
+    const track = diagnosticAt(HOIST, 'track height', {});
+    const fixed = fix(HOIST, diagnosticAt(HOIST, 'track height', { fix: 'add-integral-action', output: 'height', pole: '-3.2', insertAfter: track.range }));
+    expect(fixed).toContain('  track height\n  integral height pole -3.2\n  step height to 0.2');
+  });
+
+  it('adds a Kalman filter with identity covariances when no observer poles are given', () => {
+    const fixed = fix(HOIST, diagnosticAt(HOIST, 'lift', { fix: 'add-observer' }));
+    expect(fixed).toContain('  observer noise W = identity(2), V = 1\n}');
+    expect(checkText(fixed).diagnostics.filter((d) => d.severity === 'error')).toEqual([]);
+  });
+
   it('completes a conjugate pair after the lone pole', () => {
     const text = HOIST.replace('[-4 + 3j, -4 - 3j]', '[-4 + 3j]');
     const fixed = fix(text, diagnosticAt(text, '-4 + 3j', { fix: 'complete-conjugate-pair', missing: '-4 - 3j' }));

@@ -1,6 +1,8 @@
 // Quick fixes for diagnostics that name one in `data.fix`. Each builder reads the data fields
 // the engine attached (see the list below) and turns them into text edits; no analysis here.
-//   add-integral-action      data.output (name or names), data.pole (number, complex, list or text)
+//   add-integral-action      data.output (name or names), data.pole (number, complex, list or text),
+//                            data.insertAfter (range of the line to insert after; else the block end)
+//   add-observer             (none: a Kalman filter with identity covariances, which needs only sizes)
 //   complete-conjugate-pair  data.missing (the conjugate, as text or complex)
 //   add-observer-poles       data.poles (text or list)
 //   poles-from-spec          data.poles (text or list)
@@ -34,6 +36,7 @@ const builders: Record<string, FixBuilder> = {
   'add-integral-action': addIntegralAction,
   'complete-conjugate-pair': completeConjugatePair,
   'add-observer-poles': addObserverPoles,
+  'add-observer': addObserverPoles,
   'poles-from-spec': polesFromSpec,
   'resize-matrix': resizeMatrix,
   'hold-with-input': holdWithInput,
@@ -130,6 +133,23 @@ function appendToBlock(view: AnalysisView, declaration: PlantDecl | ControllerDe
   return { range: { start: endOfLine, end: endOfLine }, newText: `${eol}${indent}${statement}` };
 }
 
+function isRange(value: unknown): value is Range {
+  const range = value as Range;
+  return (
+    typeof value === 'object' && value !== null && typeof range.start?.line === 'number' && typeof range.end?.line === 'number'
+  );
+}
+
+/** A new statement after the line the engine names in `data.insertAfter`, else at the block end. */
+function insertStatement(view: AnalysisView, declaration: PlantDecl | ControllerDecl, statement: string, data: Record<string, unknown>): TextEdit {
+  if (isRange(data.insertAfter)) {
+    const line = data.insertAfter.end.line;
+    const lineEnd = { line, character: lineText(view.text, line).length };
+    return { range: { start: lineEnd, end: lineEnd }, newText: `${lineBreakOf(view.text)}${itemIndent(view, declaration)}${statement}` };
+  }
+  return appendToBlock(view, declaration, statement);
+}
+
 // ------------------------------------------------------------------ builders
 
 function addIntegralAction(view: AnalysisView, diagnostic: Diagnostic, data: Record<string, unknown>) {
@@ -138,15 +158,22 @@ function addIntegralAction(view: AnalysisView, diagnostic: Diagnostic, data: Rec
   if (!declaration || declaration.kind !== 'controller' || !output) return null;
   const pole = data.pole === undefined ? null : valueText(data.pole);
   const statement = `integral ${output}${pole ? ` pole ${pole}` : ''}`;
-  return { title: `Add \`${statement}\``, edits: [appendToBlock(view, declaration, statement)] };
+  return { title: `Add \`${statement}\``, edits: [insertStatement(view, declaration, statement, data)] };
 }
 
 function addObserverPoles(view: AnalysisView, diagnostic: Diagnostic, data: Record<string, unknown>) {
   const declaration = declarationContaining(view.parse.document, diagnostic.range);
-  const poles = valueText(data.poles);
-  if (!declaration || declaration.kind !== 'controller' || !poles) return null;
-  const statement = `observer poles = ${poles.startsWith('[') ? poles : `[${poles}]`}`;
-  return { title: `Add \`${statement}\``, edits: [appendToBlock(view, declaration, statement)] };
+  if (!declaration || declaration.kind !== 'controller') return null;
+  const poles = data.poles === undefined || data.poles === null ? null : valueText(data.poles);
+  let statement: string;
+  if (poles) statement = `observer poles = ${poles.startsWith('[') ? poles : `[${poles}]`}`;
+  else {
+    const plant = view.model.plants.find((p) => p.name === declaration.plant?.name);
+    if (!plant || plant.states.length === 0 || plant.outputs.length === 0) return null;
+    const weight = (n: number) => (n === 1 ? '1' : `identity(${n})`);
+    statement = `observer noise W = ${weight(plant.states.length)}, V = ${weight(plant.outputs.length)}`;
+  }
+  return { title: `Add \`${statement}\``, edits: [insertStatement(view, declaration, statement, data)] };
 }
 
 function polesFromSpec(view: AnalysisView, diagnostic: Diagnostic, data: Record<string, unknown>) {
