@@ -113,6 +113,17 @@ function plantHover(view: AnalysisView, definition: Definition): string {
   parts[0] += ` — ${count(plant.states.length, 'state')}, ${count(plant.inputs.length, 'input')}, ${count(plant.outputs.length, 'output')} (${formWord}${
     plant.linearised ? ', linearised' : ''
   })`;
+  const point = plant.operatingPoint;
+  if (point) {
+    const values = [
+      ...plant.states.map((signal, i) => `${signal.name} = ${formatNumber(point.states[i] ?? NaN)}`),
+      ...plant.inputs.map((signal, i) => `${signal.name} = ${formatNumber(point.inputs[i] ?? NaN)}`),
+    ];
+    parts.push(
+      `Linearised about ${escapeMarkdown(values.join(', '))}` +
+        (point.isEquilibrium ? ' (an equilibrium).' : ' — **not an equilibrium**' + (point.holdingInput ? `; holding input ${escapeMarkdown(point.holdingInput.map((u) => formatNumber(u)).join(', '))}.` : '.')),
+    );
+  }
   const report = plantReportAt(view, plantIndex);
   if (!report || !report.analysed) {
     parts.push(report ? 'Not analysed (see the diagnostics).' : pendingNote(view));
