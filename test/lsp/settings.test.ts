@@ -1,0 +1,23 @@
+import { describe, expect, it } from 'vitest';
+import { readServerSettings, settingsFromInitializationOptions } from '../../server/src/lsp/settings';
+
+describe('workspace settings', () => {
+  it('reads analysis fields, debounce and lenses; ignores mistyped values', () => {
+    const settings = readServerSettings({ maxLiveStates: 50, parameterErrorPercent: '20', debounceMs: 40, lenses: { step: false, poles: 1 } });
+    expect(settings.analysis).toEqual({ maxLiveStates: 50 });
+    expect(settings.debounceMs).toBe(40);
+    expect(settings.lenses).toEqual({ gains: true, prescaler: true, poles: true, step: false });
+  });
+
+  it('falls back to defaults for a negative debounce, and switches every lens off with `lenses: false`', () => {
+    const settings = readServerSettings({ debounceMs: -5, lenses: false });
+    expect(settings.debounceMs).toBe(150);
+    expect(Object.values(settings.lenses)).toEqual([false, false, false, false]);
+  });
+
+  it('accepts initialization options with or without a `settings` wrapper, and nested `analysis`', () => {
+    expect(settingsFromInitializationOptions({ settings: { observerSpeedFactor: 6 } }).analysis).toEqual({ observerSpeedFactor: 6 });
+    expect(settingsFromInitializationOptions({ analysis: { simulationPoints: 500 } }).analysis).toEqual({ simulationPoints: 500 });
+    expect(settingsFromInitializationOptions(undefined).debounceMs).toBe(150);
+  });
+});
