@@ -206,10 +206,17 @@ export function frequencyResponse(
 }
 
 /** Logarithmic grid from ω_low to ω_high with `perDecade` points per decade (at least 2 points). */
+/** Bound on the grid size: a model whose poles span hundreds of decades still gets a finite grid. */
+const MAX_GRID_POINTS = 10_000;
+
 export function logarithmicGrid(low: number, high: number, perDecade: number): number[] {
-  const decades = Math.log10(high / low);
-  const count = Math.max(2, Math.ceil(decades * perDecade) + 1);
-  return Array.from({ length: count }, (_, k) => low * Math.pow(10, (decades * k) / (count - 1)));
+  // Overflowed or underflowed corner frequencies are clamped to the finite positive doubles; NaN gives no grid.
+  const bottom = Math.max(low, Number.MIN_VALUE);
+  const top = Math.min(high, Number.MAX_VALUE);
+  if (!(bottom <= top)) return [];
+  const decades = Math.log10(top) - Math.log10(bottom);
+  const count = Math.min(MAX_GRID_POINTS, Math.max(2, Math.ceil(decades * perDecade) + 1));
+  return Array.from({ length: count }, (_, k) => bottom * Math.pow(10, (decades * k) / (count - 1)));
 }
 
 /**
