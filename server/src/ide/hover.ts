@@ -6,7 +6,7 @@ import type { Complex, Rows } from '../model/types';
 import type { ControllerReport, ModeReport, PlantReport } from '../control/design';
 import { escapeMarkdown, formatComplex, formatNumber, formatPolynomial, formatRows, shapeOf, withUnit } from './numbers';
 import { declarationAtOffset, occurrenceAtOffset, symbolIndex, type Definition } from './symbolIndex';
-import { lineText, offsetAt, rangeContains } from './text';
+import { lineText, offsetAt, rangeContains, rangesOverlap } from './text';
 import {
   checkedControllerIndex,
   checkedPlantIndex,
@@ -80,6 +80,15 @@ function trailingComment(view: AnalysisView, line: number): string | null {
   return match && match[1].trim() ? match[1].trim() : null;
 }
 
+/** The errors inside a block, as the reason it was not analysed (at most three). */
+function reasons(view: AnalysisView, range: Range): string {
+  const errors = view.diagnostics.filter((d) => d.severity === 'error' && rangesOverlap(d.range, range));
+  if (errors.length === 0) return ' (see the diagnostics).';
+  const shown = errors.slice(0, 3).map((d) => `- line ${d.range.start.line + 1}: ${escapeMarkdown(d.message)}`);
+  if (errors.length > 3) shown.push(`- … ${errors.length - 3} more`);
+  return ':\n\n' + shown.join('\n');
+}
+
 function count(n: number, word: string): string {
   return `${n} ${word}${n === 1 ? '' : 's'}`;
 }
@@ -126,7 +135,7 @@ function plantHover(view: AnalysisView, definition: Definition): string {
   }
   const report = plantReportAt(view, plantIndex);
   if (!report || !report.analysed) {
-    parts.push(report ? 'Not analysed (see the diagnostics).' : pendingNote(view));
+    parts.push(report ? `Not analysed${reasons(view, plant.range)}` : pendingNote(view));
     return parts.join('\n\n');
   }
   parts.push(plantReportMarkdown(report));
@@ -329,7 +338,7 @@ function controllerHover(view: AnalysisView, definition: Definition): string {
   const header = `**controller ${escapeMarkdown(definition.name)}**${controller ? ` for ${escapeMarkdown(controller.plantName)}` : ''}`;
   const report = controllerIndex >= 0 ? controllerReportAt(view, controllerIndex) : undefined;
   if (!report) return `${header}\n\n${pendingNote(view)}`;
-  if (!report.designed) return `${header}\n\nNot designed (see the diagnostics).`;
+  if (!report.designed) return `${header}\n\nNot designed${reasons(view, controller!.range)}`;
   return `${header}\n\n${controllerReportMarkdown(report)}${staleNote(view)}`;
 }
 
