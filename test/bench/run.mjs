@@ -34,13 +34,16 @@ function median(samples) {
   const middle = sorted.length >> 1;
   return sorted.length % 2 ? sorted[middle] : (sorted[middle - 1] + sorted[middle]) / 2;
 }
+// Process CPU time (user + system) per call: on a shared, loaded machine wall-clock time also
+// counts the time this process waited for a core, which says nothing about the code.
 function medianMs(fn, repeats) {
   fn();
   const samples = [];
   for (let i = 0; i < repeats; i++) {
-    const start = performance.now();
+    const start = process.cpuUsage();
     fn();
-    samples.push(performance.now() - start);
+    const used = process.cpuUsage(start);
+    samples.push((used.user + used.system) / 1000);
   }
   return median(samples);
 }
@@ -52,7 +55,7 @@ function matrixFormModel(n, random) {
   const rows = (r, c) => randomMatrix(random, r, c).map((row) => row.map((v) => v.toFixed(6)).join(', ')).join(';\n    ');
   return `plant big {\n  states ${names.join(', ')}\n  inputs u1, u2\n  outputs y1\n  A = [${rows(n, n)}]\n  B = [${rows(n, 2)}]\n  C = [${rows(1, n)}]\n}\n`;
 }
-console.log('Parse + check of a matrix-form plant (text → checked model), median ms');
+console.log('Parse + check of a matrix-form plant (text → checked model), median CPU ms');
 for (const n of [10, 50, 100, 200]) {
   const text = matrixFormModel(n, generator(n));
   const ms = medianMs(() => kernels.checkText(text), n === 200 ? 21 : 31);
@@ -101,12 +104,20 @@ const python = spawnSync('python3', ['-c', 'import scipy, numpy; print(scipy.__v
 if (python.status === 0) {
   const casesFile = join(scratch, 'cases.json');
   writeFileSync(casesFile, JSON.stringify(cases));
-  const run = spawnSync('python3', [join(root, 'test/bench/scipy_bench.py'), casesFile], { encoding: 'utf8', maxBuffer: 1 << 26 });
-  if (run.status === 0) scipy = JSON.parse(run.stdout);
+  // One BLAS thread, like Loopwright's single-threaded kernels; the OpenBLAS core-type overrides
+  // some machines set for old OpenBLAS builds slow a current NumPy, so they are dropped here only.
+  const env = { ...process.env, OPENBLAS_NUM_THREADS: '1', OMP_NUM_THREADS: '1', MKL_NUM_THREADS: '1' };
+  delete env.OPENBLAS_CORETYPE;
+  delete env.OPENBLAS_L2_SIZE;
+  const run = spawnSync('python3', [join(root, 'test/bench/scipy_bench.py'), casesFile], { encoding: 'utf8', maxBuffer: 1 << 26, env });
+  if (run.status === 0) {
+    scipy = JSON.parse(run.stdout);
+    console.log(`(SciPy side: ${scipy._blas.join('; ')})`);
+  }
   else console.log(`(SciPy timing failed: ${run.stderr.split('\n').slice(-3).join(' ')})`);
-  console.log(`\nAnalyses, median ms — Loopwright vs SciPy ${python.stdout.trim().replace(' ', ' / NumPy ')} in the same run`);
+  console.log(`\nAnalyses, median ms — Loopwright vs SciPy ${python.stdout.trim().replace(' ', ' / NumPy ')} in the same run (CPU ms per call on both sides)`);
 } else {
-  console.log('\nAnalyses, median ms (Python with SciPy not found: no side-by-side figures)');
+  console.log('\nAnalyses, median CPU ms (Python with SciPy not found: no side-by-side figures)');
 }
 console.log(`  ${'analysis'.padEnd(36)} ${'loopwright'.padStart(11)} ${'scipy'.padStart(10)} ${'ratio'.padStart(7)}`);
 for (const testCase of cases) {

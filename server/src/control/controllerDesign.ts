@@ -83,6 +83,18 @@ export function buildDesignModel(plant: CheckedPlant, controller: CheckedControl
   return model;
 }
 
+/**
+ * The parameter-box study costs one plant rebuild and one eigenvalue problem (≈ 10·n³ flops) per
+ * point. Its size is bounded by an operation budget (settings.iterationBudget scales it) so that
+ * live analysis stays fast on large models: all vertices while 2^k fits, seeded samples beyond.
+ */
+export const FRAGILITY_FLOP_BUDGET = 2e8;
+function fragilityBoxBudget(order: number, settings: AnalysisSettings): { samples: number; maxVertexParameters: number } {
+  const perPoint = 10 * Math.max(1, order) ** 3;
+  const points = Math.max(16, Math.floor((FRAGILITY_FLOP_BUDGET * settings.iterationBudget) / perPoint));
+  return { samples: Math.min(points, 1024), maxVertexParameters: Math.min(10, Math.floor(Math.log2(points))) };
+}
+
 /** One more sample of computation delay: the previous inputs become states (delayAugment.ts). */
 function withComputationDelay(model: DesignModel): DesignModel {
   const augmented = augmentComputationDelay(model.A, model.B, model.C, model.D, model.E);
@@ -431,9 +443,13 @@ export function designController(
         domain: model.domain,
         samplePeriod: model.T ?? undefined,
         integral,
+        ...fragilityBoxBudget(nd + integrated.length, settings),
       });
       report.details.fragility = { ...fragility, parameterNames: [...names, 'B (input gain)'] };
-      const integralFeasible = !integrated.length && integralActionFeasibility(model.A, model.B, model.C, model.D, tracked, model.domain).feasible;
+      // Integral action on the tracked outputs is feasible exactly when the set-point equations
+      // have full rank (no zero at DC, q ≤ m — already decided above) and the pair is stabilisable
+      // (the design just stabilised it), so the full feasibility test need not run again.
+      const integralFeasible = !integrated.length && (setpoint?.feasibility === 'unique' || setpoint?.feasibility === 'minimum-norm');
       const verdict = findings.fragilityFindings(
         controller,
         plant,
