@@ -91,3 +91,15 @@ describe('docs/diagnostics.md', () => {
     }
   });
 });
+
+describe('codes quoted in the other documents', () => {
+  it('exist in the registries (docs/engine.md, docs/json-output.md)', () => {
+    const known = new Set([...syntaxDiagnosticCodes, ...modelDiagnosticKinds, ...controlDiagnosticKinds].map((kind) => kind.code));
+    for (const name of ['docs/engine.md', 'docs/json-output.md']) {
+      const text = readFileSync(join(root, name), 'utf8');
+      const quoted = [...text.matchAll(/`((?:syntax|model|control)\/[a-z0-9-]+)`/g)].map((match) => match[1]);
+      expect(quoted.length, name).toBeGreaterThan(0);
+      expect(quoted.filter((code) => !known.has(code)), name).toEqual([]);
+    }
+  });
+});
