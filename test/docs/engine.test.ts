@@ -3,6 +3,7 @@
 import { existsSync, readFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { FRAGILITY_FLOP_BUDGET } from '../../server/src/control/controllerDesign';
 import { MARGIN_STATE_LIMIT, TRANSFER_PAIR_LIMIT, TRANSFER_STATE_LIMIT } from '../../server/src/control/plantReport';
 import { defaultSettings } from '../../server/src/control/settings';
 
@@ -29,6 +30,8 @@ describe('docs/engine.md', () => {
     expect(text).toContain(`\`MARGIN_STATE_LIMIT\` = ${MARGIN_STATE_LIMIT}`);
     expect(text).toContain(`\`TRANSFER_STATE_LIMIT\` = ${TRANSFER_STATE_LIMIT}`);
     expect(text).toContain(`\`TRANSFER_PAIR_LIMIT\` = ${TRANSFER_PAIR_LIMIT}`);
+    const budget = /`FRAGILITY_FLOP_BUDGET` = ([0-9.e]+)/.exec(text);
+    expect(Number(budget?.[1])).toBe(FRAGILITY_FLOP_BUDGET);
   });
 
   it('names only files that exist', () => {
