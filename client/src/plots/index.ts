@@ -203,8 +203,9 @@ function metricsTable(metrics: PlotData['step'][number]['metrics']): HTMLElement
     ['undershoot', withUnit(metrics.undershootPercent, '%')],
     ['steady-state error', formatNumber(metrics.steadyStateError)],
     ...metrics.peakInput.map((p): [string, string] => [
-      `peak ${p.input}`,
-      formatNumber(p.value) + (p.limit ? ` (limit ${formatNumber(p.limit[0])} … ${formatNumber(p.limit[1])})` : ''),
+      `range of ${p.input}`,
+      (p.min !== undefined && p.max !== undefined ? `${formatNumber(p.min)} … ${formatNumber(p.max)}` : formatNumber(p.value)) +
+        (p.limit ? ` (limit ${formatNumber(p.limit[0])} … ${formatNumber(p.limit[1])})` : ''),
     ]),
   ];
   for (const [name, value] of rows) {

@@ -29,7 +29,7 @@ export interface StepPlotData {
     overshootPercent: number | null;
     undershootPercent: number | null;
     steadyStateError: number | null;
-    peakInput: { input: string; value: number; limit: [number, number] | null }[];
+    peakInput: { input: string; value: number; min?: number; max?: number; limit: [number, number] | null }[];
   };
 }
 

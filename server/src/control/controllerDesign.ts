@@ -277,11 +277,18 @@ function stepReport(
         overshootPercent: metrics.overshootPercent,
         undershootPercent: metrics.undershootPercent,
         steadyStateError: metrics.steadyStateError,
-        peakInput: metrics.inputs.map((peak) => ({
-          input: inputNames[peak.input],
-          value: peak.peak + (u0[peak.input] ?? 0),
-          limit: limits[peak.input] ?? null,
-        })),
+        peakInput: metrics.inputs.map((peak) => {
+          // Physical extremes: the exact largest excursion from u0 plus the sampled trace's range.
+          const trace = (linear.inputs[peak.input] ?? []).map((v) => v + (u0[peak.input] ?? 0));
+          const exact = peak.peak + (u0[peak.input] ?? 0);
+          return {
+            input: inputNames[peak.input],
+            value: exact,
+            min: Math.min(exact, ...trace),
+            max: Math.max(exact, ...trace),
+            limit: limits[peak.input] ?? null,
+          };
+        }),
       },
     };
   });

@@ -50,7 +50,8 @@ export interface StepMetricsReport {
   overshootPercent: number | null;
   undershootPercent: number | null;
   steadyStateError: number | null;
-  peakInput: { input: string; value: number; limit: [number, number] | null }[];
+  /** Per input: `value` the largest excursion from u0 (physical), `min`/`max` the physical range reached. */
+  peakInput: { input: string; value: number; min: number; max: number; limit: [number, number] | null }[];
 }
 
 export interface StepResponseReport {

@@ -215,9 +215,10 @@ export const designDiagnostics = {
         const index = plant.inputs.findIndex((s) => s.name === peak.input);
         const limit = controller.limits.find((entry) => entry.input === index);
         if (!limit || seen.has(index)) continue;
-        if (peak.value > limit.high || peak.value < limit.low) {
+        if (peak.max > limit.high || peak.min < limit.low) {
           seen.add(index);
-          out.push(saturationLimitExceeded.create(limit.range, [peak.input, peak.value, limit.low, limit.high]));
+          const beyond = peak.max - limit.high >= limit.low - peak.min ? peak.max : peak.min;
+          out.push(saturationLimitExceeded.create(limit.range, [peak.input, beyond, limit.low, limit.high]));
         }
       }
     }
