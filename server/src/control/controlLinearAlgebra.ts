@@ -1,11 +1,21 @@
 // Small dense kernels the control analyses share: eigenvalues, singular values, solves, and a
-// Householder QR that returns an orthonormal basis of a null space. Eigen- and singular-value
-// decompositions come from ml-matrix (Hessenberg–QR and Golub–Kahan, the classic EISPACK/JAMA
-// algorithms); the Householder kernels work on flat row-major Float64Array for the hot paths of
-// pole placement. Kept private to control/ so the numeric layer can replace them later.
-import { EigenvalueDecomposition, Matrix, SingularValueDecomposition, LuDecomposition } from 'ml-matrix';
+// Householder QR that returns an orthonormal basis of a null space. All decompositions come from the
+// numeric layer on flat row-major Float64Array (balanced Hessenberg–QR with dtrevc-style
+// eigenvectors, Golub–Kahan–Reinsch SVD, LU with partial pivoting); this file keeps the Rows-based
+// signatures the control analyses were written against.
 import type { Complex, Rows } from '../numeric/types';
-import { eigenvaluesWithStatus } from '../numeric';
+import {
+  type Dense,
+  balanceDense,
+  denseFromRows,
+  denseToRows,
+  eigenvaluesWithStatus,
+  eigenvectorsFromSchur,
+  luFactor,
+  luSolveDense,
+  realSchurDense,
+  svdDense,
+} from '../numeric';
 
 export const EPS = Number.EPSILON;
 
@@ -35,31 +45,46 @@ export function eigenvaluesOf(A: Rows): Complex[] {
  */
 export function realEigenvectors(A: Rows): { values: Complex[]; V: Rows; blockD: Rows } {
   const n = A.length;
-  if (!allFinite(A)) {
+  const nanResult = () => {
     const nan = Array.from({ length: n }, () => new Array<number>(n).fill(NaN));
-    return { values: Array.from({ length: n }, () => ({ re: NaN, im: NaN })), V: nan, blockD: nan };
-  }
-  const evd = new EigenvalueDecomposition(new Matrix(A), { assumeSymmetric: false });
-  const re = evd.realEigenvalues;
-  const im = evd.imaginaryEigenvalues;
-  return {
-    values: re.map((value, i) => ({ re: value, im: im[i] })),
-    V: n === 0 ? [] : evd.eigenvectorMatrix.to2DArray(),
-    blockD: n === 0 ? [] : evd.diagonalMatrix.to2DArray(),
+    return { values: Array.from({ length: n }, () => ({ re: NaN, im: NaN })), V: nan, blockD: nan.map((row) => row.slice()) };
   };
+  if (n === 0) return { values: [], V: [], blockD: [] };
+  if (!allFinite(A)) return nanResult();
+  const { scaled, scaling } = balanceDense(denseFromRows(A));
+  const schur = realSchurDense(scaled);
+  if (!schur.converged) return nanResult();
+  // Schur order: a complex pair comes as (a + iω, a − iω) with ω > 0 in adjacent columns, the
+  // eigenvector of a + iω = x + iy in the first; the real block form uses columns (x, y).
+  const { values, re, im } = eigenvectorsFromSchur(schur.T, schur.Z, scaling);
+  const V = zerosRows(n, n);
+  const blockD = zerosRows(n, n);
+  for (let j = 0; j < n; ) {
+    if (values[j].im !== 0 && j + 1 < n) {
+      const { re: a, im: omega } = values[j];
+      for (let i = 0; i < n; i++) {
+        V[i][j] = re[i * n + j];
+        V[i][j + 1] = im[i * n + j];
+      }
+      blockD[j][j] = a;
+      blockD[j][j + 1] = omega;
+      blockD[j + 1][j] = -omega;
+      blockD[j + 1][j + 1] = a;
+      j += 2;
+    } else {
+      for (let i = 0; i < n; i++) V[i][j] = re[i * n + j];
+      blockD[j][j] = values[j].re;
+      j += 1;
+    }
+  }
+  return { values, V, blockD };
 }
 
 /** Singular values, descending. Works for wide and tall matrices. */
 export function singularValuesOf(M: Rows): number[] {
   if (M.length === 0 || M[0].length === 0) return [];
   if (!allFinite(M)) return new Array<number>(Math.min(M.length, M[0].length)).fill(NaN);
-  const tall = M.length >= M[0].length ? M : transposeRows(M);
-  const svd = new SingularValueDecomposition(new Matrix(tall), {
-    computeLeftSingularVectors: false,
-    computeRightSingularVectors: false,
-    autoTranspose: false,
-  });
-  return Array.from(svd.diagonal).sort((a, b) => b - a);
+  return Array.from(svdDense(denseFromRows(M), false).s);
 }
 
 /** Thin SVD M = U·diag(s)·Vᵀ with s descending (U p×k, V q×k, k = min(p, q)). */
@@ -71,23 +96,8 @@ export function thinSvd(M: Rows): { U: Rows; s: number[]; V: Rows } {
     const k = Math.min(p, q);
     return { U: zerosRows(p, k), s: new Array<number>(k).fill(NaN), V: zerosRows(q, k) };
   }
-  const wide = p < q;
-  const svd = new SingularValueDecomposition(new Matrix(wide ? transposeRows(M) : M), {
-    computeLeftSingularVectors: true,
-    computeRightSingularVectors: true,
-    autoTranspose: false,
-  });
-  const s = Array.from(svd.diagonal);
-  let U = svd.leftSingularVectors.to2DArray();
-  let V = svd.rightSingularVectors.to2DArray();
-  if (wide) [U, V] = [V, U];
-  const k = Math.min(p, q);
-  const order = s.map((_, i) => i).sort((a, b) => s[b] - s[a]).slice(0, k);
-  return {
-    U: U.map((row) => order.map((j) => row[j])),
-    s: order.map((j) => s[j]),
-    V: V.map((row) => order.map((j) => row[j])),
-  };
+  const result = svdDense(denseFromRows(M), true);
+  return { U: denseToRows(result.U as Dense), s: Array.from(result.s), V: denseToRows(result.V as Dense) };
 }
 
 export function norm2(M: Rows): number {
@@ -106,9 +116,9 @@ export function conditionNumber2(M: Rows): number {
 export function solveRows(A: Rows, B: Rows): { X: Rows; singular: boolean } {
   if (A.length === 0) return { X: [], singular: false };
   if (B.length === 0 || B[0].length === 0) return { X: A.map(() => []), singular: false };
-  const lu = new LuDecomposition(new Matrix(A));
-  if (lu.isSingular()) return { X: zerosRows(A.length, B[0]?.length ?? 0), singular: true };
-  return { X: lu.solve(new Matrix(B)).to2DArray(), singular: false };
+  const factor = luFactor(denseFromRows(A));
+  if (factor.hasZeroPivot) return { X: zerosRows(A.length, B[0]?.length ?? 0), singular: true };
+  return { X: denseToRows(luSolveDense(factor, denseFromRows(B))), singular: false };
 }
 
 export function transposeRows(M: Rows): Rows {

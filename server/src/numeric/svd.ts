@@ -1,4 +1,11 @@
-// Singular value decomposition by one-sided Jacobi rotations (Hestenes 1958) applied to the
+// Singular value decomposition, two methods:
+// - 'bidiagonal-qr' (the default): Golub–Kahan–Reinsch in bidiagonalSvd.ts. Fast (O(mn²) with a
+//   small constant); singular values accurate to O(ε·σ_max) in absolute terms, which is what rank
+//   decisions, norms and condition numbers need.
+// - 'jacobi': below. About ten times slower, but small singular values of matrices with graded
+//   rows or columns come out to high RELATIVE accuracy; ask for it when the size of a tiny σ matters.
+//
+// One-sided Jacobi rotations (Hestenes 1958) applied to the
 // triangular factor of a column-pivoted QR, the preconditioned scheme of Drmač & Veselić (SIAM J.
 // Matrix Anal. Appl. 29, 2008). One-sided Jacobi computes singular values to high relative accuracy
 // for matrices whose columns are well scaled (Demmel & Veselić, SIAM J. Matrix Anal. Appl. 13, 1992).
@@ -9,6 +16,7 @@ import { type Dense, denseFromRows, denseToRows, scaledNorm2, transposeDense } f
 import { extractR, formQ, householderQrDense } from './qr';
 import type { Rows } from './types';
 import { countIterations, noteNonConvergence } from './iterationCount';
+import { bidiagonalSvdDense } from './bidiagonalSvd';
 
 const EPS = Number.EPSILON;
 const MAX_SWEEPS = 60;
@@ -21,6 +29,13 @@ export interface SvdDense {
   /** n×k with orthonormal columns, or null when not requested. */
   V: Dense | null;
   converged: boolean;
+}
+
+export type SvdMethod = 'bidiagonal-qr' | 'jacobi';
+
+export interface SvdOptions {
+  /** 'bidiagonal-qr' (default, fast) or 'jacobi' (high relative accuracy of small σ). */
+  method?: SvdMethod;
 }
 
 /**
@@ -79,11 +94,17 @@ function jacobiOrthogonaliseColumns(columns: Float64Array, k: number, rotations:
 }
 
 /** Thin SVD A = U·diag(s)·Vᵀ of an m×n Dense matrix. */
-export function svdDense(matrix: Dense, wantVectors: boolean): SvdDense {
+export function svdDense(matrix: Dense, wantVectors: boolean, options: SvdOptions = {}): SvdDense {
+  if ((options.method ?? 'bidiagonal-qr') === 'bidiagonal-qr') return bidiagonalSvdDense(matrix, wantVectors);
+  return jacobiSvdDense(matrix, wantVectors);
+}
+
+/** Thin SVD by one-sided Jacobi on the triangular factor of a column-pivoted QR. */
+function jacobiSvdDense(matrix: Dense, wantVectors: boolean): SvdDense {
   const m = matrix.rows;
   const n = matrix.cols;
   if (m < n) {
-    const transposed = svdDense(transposeDense(matrix), wantVectors);
+    const transposed = jacobiSvdDense(transposeDense(matrix), wantVectors);
     return { U: transposed.V, s: transposed.s, V: transposed.U, converged: transposed.converged };
   }
   const k = n;
@@ -174,14 +195,14 @@ function completeOrthonormalColumns(basis: Float64Array, k: number, missing: num
 }
 
 /** Singular values of A, descending. */
-export function singularValues(A: Rows): number[] {
+export function singularValues(A: Rows, options: SvdOptions = {}): number[] {
   const matrix = denseFromRows(A);
-  return Array.from(svdDense(matrix, false).s);
+  return Array.from(svdDense(matrix, false, options).s);
 }
 
 /** Thin SVD A = U·diag(s)·Vᵀ: U is m×k, V is n×k (k = min(m, n)), s descending. */
-export function svd(A: Rows): { U: Rows; s: number[]; V: Rows; converged: boolean } {
-  const result = svdDense(denseFromRows(A), true);
+export function svd(A: Rows, options: SvdOptions = {}): { U: Rows; s: number[]; V: Rows; converged: boolean } {
+  const result = svdDense(denseFromRows(A), true, options);
   return { U: denseToRows(result.U!), s: Array.from(result.s), V: denseToRows(result.V!), converged: result.converged };
 }
 
