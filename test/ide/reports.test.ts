@@ -97,8 +97,13 @@ describe('rendering engine records', () => {
     expect(markdown).toContain('rise 0.4261 s, settling 1.123 s, overshoot 1.52 %');
   });
 
+  it('puts a verdict above the plant', () => {
+    const lenses = codeLenses(view(HOIST)).filter((lens) => lens.range.start.line === 0);
+    expect(lenses.map((lens) => lens.title)).toEqual(['marginal · controllable · observable']);
+  });
+
   it('puts one lens per figure above the controller, with the ControllerRef argument', () => {
-    const lenses = codeLenses(view(HOIST));
+    const lenses = codeLenses(view(HOIST)).filter((lens) => lens.range.start.line !== 0);
     expect(lenses.map((lens) => lens.title)).toEqual([
       'K = [3.75, 0.2167]',
       'N = [75]',

@@ -6,13 +6,13 @@ describe('workspace settings', () => {
     const settings = readServerSettings({ maxLiveStates: 50, parameterErrorPercent: '20', debounceMs: 40, lenses: { step: false, poles: 1 } });
     expect(settings.analysis).toEqual({ maxLiveStates: 50 });
     expect(settings.debounceMs).toBe(40);
-    expect(settings.lenses).toEqual({ gains: true, prescaler: true, poles: true, step: false });
+    expect(settings.lenses).toEqual({ plant: true, gains: true, prescaler: true, poles: true, step: false });
   });
 
   it('falls back to defaults for a negative debounce, and switches every lens off with `lenses: false`', () => {
     const settings = readServerSettings({ debounceMs: -5, lenses: false });
     expect(settings.debounceMs).toBe(150);
-    expect(Object.values(settings.lenses)).toEqual([false, false, false, false]);
+    expect(Object.values(settings.lenses).every((shown) => shown === false)).toBe(true);
   });
 
   it('accepts initialization options with or without a `settings` wrapper, and nested `analysis`', () => {

@@ -2,7 +2,7 @@
 // step metrics, each with a command the client implements (copy, show the response, export).
 import type { Range } from '../../../grammar/src/ast';
 import { formatComplex, formatNumber, formatRowsInline } from './numbers';
-import { controllerReportAt, pendingNote, type AnalysisView } from './view';
+import { controllerReportAt, pendingNote, plantReportAt, type AnalysisView } from './view';
 import { defaultLensSettings, type LensSettings } from './lensSettings';
 import { observerGainOf } from './hover';
 
@@ -28,6 +28,21 @@ function clip(text: string): string {
 
 export function codeLenses(view: AnalysisView, settings: LensSettings = defaultLensSettings): CodeLensRecord[] {
   const lenses: CodeLensRecord[] = [];
+  if (!settings.plant && !settings.gains && !settings.prescaler && !settings.poles && !settings.step) return lenses;
+  if (settings.plant) {
+    view.model.plants.forEach((plant, plantIndex) => {
+      const report = plantReportAt(view, plantIndex);
+      if (!report?.analysed) return;
+      const range: Range = { start: plant.range.start, end: plant.range.start };
+      const verdict = (flag: boolean | null, yes: string, no: string) => (flag === null ? null : flag ? yes : no);
+      const pieces = [
+        report.stability,
+        verdict(report.controllable, 'controllable', report.stabilisable ? 'not controllable (stabilisable)' : 'not controllable'),
+        verdict(report.observable, 'observable', report.detectable ? 'not observable (detectable)' : 'not observable'),
+      ].filter((piece): piece is string => !!piece);
+      if (pieces.length > 0) lenses.push({ range, title: pieces.join(' · '), command: '', arguments: [] });
+    });
+  }
   if (!settings.gains && !settings.prescaler && !settings.poles && !settings.step) return lenses;
   view.model.controllers.forEach((controller, controllerIndex) => {
     const range: Range = { start: controller.range.start, end: controller.range.start };
