@@ -417,7 +417,9 @@ export function designController(
   // Sampling advice and single-precision check for sampled designs.
   if (model.domain === 'discrete') {
     const T = model.T as number;
-    const continuousPoles = mapPolesToContinuous(gains.closedLoopPoles.filter((z) => Math.hypot(z.re, z.im) > 0), T);
+    // Poles inside |z| < e^{−π} have no continuous counterpart below the Nyquist rate (dead-beat
+    // and computation-delay poles); the advice on T concerns the others.
+    const continuousPoles = mapPolesToContinuous(gains.closedLoopPoles.filter((z) => Math.hypot(z.re, z.im) > Math.exp(-Math.PI)), T);
     const advice = adviseSamplePeriod(T, continuousPoles, eigenvaluesOf(plant.A), {
       samplesPerTimeConstant: settings.samplesPerTimeConstant,
     });
@@ -541,6 +543,7 @@ function designEstimator(
       return null;
     }
     let gain = placed.L;
+    let quality = { eigenvectorCondition: placed.eigenvectorCondition, backwardError: placed.backwardError, achievedPoles: placed.achievedPoles };
     // Current form: x̂ = x̄ + M(y − C x̄) with M chosen so that A − A·M·C has the requested poles: M = A⁻¹L
     // would need A invertible, so M is placed directly on the pair (Aᵀ, (C A)ᵀ) instead.
     if (form === 'current') {
@@ -550,10 +553,12 @@ function designEstimator(
         return null;
       }
       gain = currentPlaced.L;
+      quality = { eigenvectorCondition: currentPlaced.eigenvectorCondition, backwardError: currentPlaced.backwardError, achievedPoles: currentPlaced.achievedPoles };
     }
     L = gain;
-    poles = form === 'current' ? requested : placed.achievedPoles;
-    details = { method: 'placement', L, poles, form, eigenvectorCondition: placed.eigenvectorCondition, backwardError: placed.backwardError };
+    // Current form: the placed matrix Φ − Φ·M·C has the same spectrum as Φ − M·C·Φ (used above).
+    poles = quality.achievedPoles;
+    details = { method: 'placement', L, poles, form, eigenvectorCondition: quality.eigenvectorCondition, backwardError: quality.backwardError };
   } else {
     const onDisturbances = spec.enters === 'disturbances';
     const kalman = steadyStateKalmanGain({
@@ -595,7 +600,9 @@ function openLoopFrequencyResponse(model: DesignModel, loop: StateSpace, margins
   const low = margins.lowestFrequency;
   const high = model.domain === 'discrete' ? Math.min(margins.highestFrequency, Math.PI / (model.T as number)) : margins.highestFrequency;
   if (!(low > 0 && high > low)) return undefined;
-  const omega = logarithmicGrid(low, high, 40).slice(0, 400);
+  // At most about 400 points: fewer per decade on wide ranges, never a cut-off high end.
+  const perDecade = Math.max(4, Math.min(40, Math.floor(400 / Math.max(1, Math.log10(high / low)))));
+  const omega = logarithmicGrid(low, high, perDecade);
   const response = frequencyResponse(loop.A, loop.B.map((row) => row.slice(0, 1)), loop.C.slice(0, 1), [[loop.D[0]?.[0] ?? 0]], omega, model.domain, model.T ?? undefined);
   const channel = response.channels[0];
   if (!channel) return undefined;

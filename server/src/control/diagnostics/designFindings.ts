@@ -42,6 +42,7 @@ import { specUnusable } from './spec-unusable';
 import { specViolation } from './spec-violation';
 import { uncontrollableDiagnostic } from './uncontrollable';
 import { zeroDcGainDiagnostic } from './zero-dc-gain';
+import { tooManySetpointsKind } from './too-many-setpoints';
 import { suggestIntegralPole } from '../integralAction';
 import type { IntegralFeasibility } from '../integralAction';
 
@@ -169,15 +170,7 @@ export const designDiagnostics = {
     }
     const out: Diagnostic[] = [];
     if (setpoint.feasibility === 'infeasible') {
-      out.push(
-        zeroDcGainDiagnostic(track.range, { outputs, inputs: inputNames(plant), domain, singularCombination: setpoint.singularCombination }, related),
-      );
-      out[0] = {
-        ...out[0],
-        code: 'control/too-many-setpoints',
-        message: `${outputs.length} outputs cannot all follow independent set-points with ${plant.inputs.length} input${plant.inputs.length === 1 ? '' : 's'}: track at most ${plant.inputs.length}`,
-      };
-      return out;
+      return [tooManySetpointsKind.create(track.range, [outputs.length, plant.inputs.length], { related })];
     }
     if (!setpoint.dcGainDefined) out.push(dcGainUndefinedDiagnostic(track.range, { domain }, related));
     if (setpoint.illConditioned) {

@@ -39,14 +39,8 @@ import { defineDiagnostic } from '../../model/diagnostics/define';
  * `control/too-many-setpoints` (error): designFindings.ts builds this one by renaming a zero-DC-gain
  * diagnostic, without a kind file of its own; it is defined here so the reference lists it.
  */
-export const tooManySetpointsKind = defineDiagnostic({
-  code: 'control/too-many-setpoints',
-  severity: 'error',
-  fires: 'More outputs are tracked than the plant has inputs, so the set-point equations [A B; C_t D_t]·[Nx; Nu] = [0; I] have no solution.',
-  example: '2 outputs cannot all follow independent set-points with 1 input: track at most 1',
-  message: (outputs: number, inputs: number): string =>
-    `${outputs} outputs cannot all follow independent set-points with ${inputs} input${inputs === 1 ? '' : 's'}: track at most ${inputs}`,
-});
+
+import { tooManySetpointsKind } from './too-many-setpoints';
 
 export {
   currentFormFeedthrough,
