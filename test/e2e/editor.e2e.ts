@@ -4,7 +4,7 @@
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import { repoRoot, startEditor, type Editor } from './harness';
+import { repoRoot, resultsDir, startEditor, type Editor } from './harness';
 
 // The hoist sample with the torque constant misspelt in B: an unknown name the server must flag.
 const hoistText = readFileSync(join(repoRoot, 'samples', 'hoist.plant'), 'utf8');
@@ -182,6 +182,12 @@ describe('Loopwright in a real editor', () => {
 
   it('draws the step response and pole map in the response panel', async () => {
     await editor.openFile('hoist.plant');
+    // Hide the bottom panel (problems) so the screenshot shows the response panel at full height.
+    const bottomPanel = editor.page.locator('.part.panel.bottom');
+    if (await bottomPanel.isVisible()) {
+      await editor.page.keyboard.press('Control+J');
+      await bottomPanel.waitFor({ state: 'hidden' });
+    }
     await editor.runCommand('Loopwright: Show Response Panel');
     const frame = editor.webview();
     await frame.locator('#plots[data-rendered="true"]').waitFor({ timeout: 60_000 });
@@ -191,5 +197,6 @@ describe('Loopwright in a real editor', () => {
     expect(await frame.locator('svg.lw-pole-map .lw-cross').count()).toBe(2);
     expect(await frame.locator('.lw-plot-outputs .u-legend').innerText()).toMatch(/height/);
     await editor.screenshot('response-panel');
+    await editor.page.locator('iframe.webview.ready').last().screenshot({ path: join(resultsDir, 'e2e-response-panel-only.png') });
   });
 });

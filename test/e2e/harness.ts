@@ -246,14 +246,27 @@ export async function startEditor(options: StartOptions = {}): Promise<Editor> {
         const tab = page.locator('.tabs-container .tab.active', { hasText: name });
         await tab.waitFor();
         await page.locator('.editor-instance .monaco-editor .view-lines').first().waitFor();
+        await page.keyboard.press('Control+1'); // focus the editor, as a person would by clicking into it
+        await page.locator('.editor-instance .monaco-editor.focused').first().waitFor();
         return tab;
       },
       async runCommand(title) {
-        await page.keyboard.press('F1');
         const input = page.locator('.quick-input-widget input');
-        await input.waitFor({ state: 'visible' });
-        await input.fill(`>${title}`);
-        await page.locator('.quick-input-list .monaco-list-row', { hasText: title }).first().waitFor();
+        const row = page.locator('.quick-input-list .monaco-list-row', { hasText: title }).first();
+        // The palette occasionally shows a stale list for a filled-in query; reopen it (at most three times).
+        for (let attempt = 1; ; attempt++) {
+          await page.keyboard.press('F1');
+          await input.waitFor({ state: 'visible' });
+          await input.fill(`>${title}`);
+          const found = await row.waitFor({ timeout: attempt < 3 ? 10_000 : 30_000 }).then(
+            () => true,
+            () => false,
+          );
+          if (found) break;
+          if (attempt === 3) throw new Error(`the command palette does not list “${title}”`);
+          await page.keyboard.press('Escape');
+          await page.locator('.quick-input-widget').waitFor({ state: 'hidden' });
+        }
         await page.keyboard.press('Enter');
         // Done when the palette closed or a command's own picker replaced it.
         await page.waitForFunction(() => {
