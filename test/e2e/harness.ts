@@ -296,10 +296,10 @@ export async function startEditor(options: StartOptions = {}): Promise<Editor> {
         return path;
       },
       async stop() {
-        if (process.env.LOOPWRIGHT_E2E_LOG) {
-          writeFileSync(join(resultsDir, 'e2e-browser-console.log'), consoleLog.join('\n'));
-          writeFileSync(join(resultsDir, 'e2e-code-server.log'), serverLog.join(''));
-        }
+        // Logs kept beside the screenshots as CI artefacts.
+        mkdirSync(resultsDir, { recursive: true });
+        writeFileSync(join(resultsDir, 'e2e-browser-console.log'), consoleLog.join('\n'));
+        writeFileSync(join(resultsDir, 'e2e-code-server.log'), serverLog.join(''));
         await context?.close().catch(() => undefined);
         await stopGroup(server);
         if (!process.env.LOOPWRIGHT_E2E_KEEP) rmSync(run, { recursive: true, force: true });
