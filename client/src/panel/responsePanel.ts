@@ -4,6 +4,7 @@ import { randomBytes } from 'node:crypto';
 import * as vscode from 'vscode';
 import type { ControllerDataResult, ControllerRef } from '../protocol';
 import type { PanelReply, ReportMessage } from './messages';
+import { panelHtml } from './panelHtml';
 
 export type FetchControllerData = (ref: ControllerRef) => Promise<ControllerDataResult | null>;
 
@@ -60,7 +61,7 @@ class ResponsePanel {
       { enableScripts: true, localResourceRoots: [dist], retainContextWhenHidden: false },
     );
     this.webview.iconPath = vscode.Uri.joinPath(extensionUri, 'client', 'media', 'icon.png');
-    this.webview.webview.html = panelHtml(this.webview.webview, dist, ref.controller);
+    this.webview.webview.html = pageFor(this.webview.webview, dist, ref.controller);
     this.webview.webview.onDidReceiveMessage((reply: PanelReply) => {
       if (reply.type === 'ready') {
         this.ready = true;
@@ -113,35 +114,12 @@ function noteFor(result: ControllerDataResult | null, controller: string): strin
   return undefined;
 }
 
-function panelHtml(webview: vscode.Webview, dist: vscode.Uri, controller: string): string {
-  const nonce = randomBytes(16).toString('base64');
-  const script = webview.asWebviewUri(vscode.Uri.joinPath(dist, 'webview.js'));
-  const style = webview.asWebviewUri(vscode.Uri.joinPath(dist, 'webview.css'));
-  const csp = [
-    "default-src 'none'",
-    `img-src ${webview.cspSource} data:`,
-    `style-src ${webview.cspSource} 'nonce-${nonce}'`,
-    `font-src ${webview.cspSource}`,
-    `script-src 'nonce-${nonce}'`,
-  ].join('; ');
-  const title = escapeHtml(`Response: ${controller}`);
-  return `<!DOCTYPE html>
-<html lang="en">
-<head>
-<meta charset="UTF-8">
-<meta http-equiv="Content-Security-Policy" content="${csp}">
-<meta name="viewport" content="width=device-width, initial-scale=1.0">
-<link rel="stylesheet" nonce="${nonce}" href="${style}">
-<title>${title}</title>
-</head>
-<body>
-<p id="status" role="status" hidden></p>
-<main id="plots" aria-label="${title}"></main>
-<script nonce="${nonce}" src="${script}"></script>
-</body>
-</html>`;
-}
-
-function escapeHtml(text: string): string {
-  return text.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
+function pageFor(webview: vscode.Webview, dist: vscode.Uri, controller: string): string {
+  return panelHtml({
+    cspSource: webview.cspSource,
+    scriptUri: webview.asWebviewUri(vscode.Uri.joinPath(dist, 'webview.js')).toString(),
+    styleUri: webview.asWebviewUri(vscode.Uri.joinPath(dist, 'webview.css')).toString(),
+    nonce: randomBytes(16).toString('base64'),
+    title: `Response: ${controller}`,
+  });
 }
