@@ -47,6 +47,12 @@ describe('extension manifest', () => {
     }
   });
 
+  it('lets every code lens the server draws be switched off from the editor settings', () => {
+    for (const lens of Object.keys(defaultLensSettings)) {
+      expect(Object.keys(contributes.configuration.properties), `setting for the ${lens} lens`).toContain(`loopwright.lenses.${lens}`);
+    }
+  });
+
   it('points at files that exist and are packaged', () => {
     const packaged = readFileSync(join(root, '.vscodeignore'), 'utf8')
       .split('\n')
