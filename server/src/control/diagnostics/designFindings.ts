@@ -247,7 +247,10 @@ export const designDiagnostics = {
       out.push(samplingTooLong.create(sample.range, [advice.samplePeriod, advice.fastestPoleMagnitude, advice.advisedMaximumPeriod]));
     }
     for (const pair of advice.pathologicalPairs) {
-      if (pair.first.im < 0) continue;
+      // Report each pair once: skip the mirror image of a pair in the upper half plane (a
+      // conjugate pair, imaginary parts summing to zero, is its own mirror and is kept).
+      const imaginarySum = pair.first.im + pair.second.im;
+      if (imaginarySum < -Math.sqrt(Number.EPSILON) * (Math.abs(pair.first.im) + Math.abs(pair.second.im))) continue;
       out.push(samplingPathological.create(sample.range, [advice.samplePeriod, pair.first, pair.second]));
     }
     return out;
