@@ -177,6 +177,8 @@ describe('Loopwright in a real editor', () => {
     const codesListed = async () => (await panel.innerText()).split('\n').map((part) => part.trim());
     await expect.poll(async () => (await codesListed()).includes(appliedFor!), { timeout: 60_000 }).toBe(false);
     expect(await panel.innerText()).toMatch(/dosing-tank\.plant/); // the panel still lists this file's other problems
+    // The code lens is refreshed with the new design: it now shows an integral gain.
+    await page.locator('.editor-instance .codelens-decoration', { hasText: /Ki\s*=/ }).first().waitFor({ timeout: 60_000 });
     await editor.screenshot('quick-fix');
   });
 
