@@ -50,6 +50,10 @@ if [ ! -f "$marker" ]; then
   [ -f "$code_server_dir/package.json" ] || echo '{ "name": "loopwright-e2e-editor", "private": true }' > "$code_server_dir/package.json"
   (
     cd "$code_server_dir"
+    # Under `npm run`, the outer npm (on Node 20) exports npm_* variables, among them a user agent
+    # naming node/v20 that code-server's postinstall reads; drop them so Node 24's npm sets its own.
+    for variable in $(env | sed -n 's/^\(npm_[A-Za-z0-9_]*\)=.*/\1/p'); do unset "$variable"; done
+    unset NODE
     export PATH="$node24/bin:$PATH"
     export npm_config_nodedir="$node24"
     export npm_config_update_notifier=false
