@@ -74,12 +74,12 @@ export function matchPoles(computed: Complex[], requested: Complex[]): number[] 
 
 /** Largest multiplicity of any requested pole (values within 100·n·ε·max|λ| count as equal). */
 export function largestMultiplicity(poles: Complex[]): number {
+  return Math.max(0, ...poles.map((p) => multiplicityOf(p, poles)));
+}
+
+/** How many of `poles` coincide with `pole` to the tolerance of largestMultiplicity. */
+export function multiplicityOf(pole: Complex, poles: Complex[]): number {
   const scale = Math.max(1, ...poles.map((p) => Math.hypot(p.re, p.im)));
   const tolerance = 100 * Math.max(1, poles.length) * EPS * scale;
-  let best = 0;
-  for (const p of poles) {
-    const count = poles.filter((q) => Math.hypot(q.re - p.re, q.im - p.im) <= tolerance).length;
-    best = Math.max(best, count);
-  }
-  return best;
+  return poles.filter((q) => Math.hypot(q.re - pole.re, q.im - pole.im) <= tolerance).length;
 }

@@ -6,6 +6,7 @@ import type { FragilityResult } from '../fragility';
 import type { LqrResult } from '../lqr';
 import type { LoopMarginsResult } from '../margins';
 import type { PlacementResult } from '../placement';
+import { multiplicityOf } from '../poleSlots';
 import { matrixRelated, plantAnchor } from '../plantReport';
 import type { StepResponseReport } from '../reportTypes';
 import type { SamplingAdvice } from '../samplingAdvice';
@@ -116,14 +117,11 @@ export const designDiagnostics = {
     const out: Diagnostic[] = [];
     const range = designLine(controller);
     if (placement.warnings.includes('defective-closed-loop')) {
-      const counts = new Map<string, { pole: Complex; count: number }>();
-      for (const pole of placement.requestedPoles) {
-        const key = `${pole.re}|${pole.im}`;
-        const entry = counts.get(key) ?? { pole, count: 0 };
-        entry.count++;
-        counts.set(key, entry);
-      }
-      const worst = [...counts.values()].sort((a, b) => b.count - a.count)[0];
+      // Coincidence to the placement's own tolerance (poles e^{−50}, e^{−60} of a long sample
+      // period count as one repeated pole there, so they must here too).
+      const worst = placement.requestedPoles
+        .map((pole) => ({ pole, count: multiplicityOf(pole, placement.requestedPoles) }))
+        .sort((a, b) => b.count - a.count)[0];
       const inputRank = placement.K.length;
       if (worst) out.push(defectiveClosedLoopDiagnostic(range, { pole: worst.pole, multiplicity: worst.count, inputRank, domain }));
     }
