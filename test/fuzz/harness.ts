@@ -197,7 +197,7 @@ export function applyMutation(text: string, change: Mutation): string {
       const i = change.at % lines.length;
       if (change.kind === 'delete-line') lines.splice(i, 1);
       else if (change.kind === 'duplicate-line') lines.splice(i, 0, lines[i]);
-      else {
+      else if (change.kind === 'swap-lines') {
         const j = change.other % lines.length;
         [lines[i], lines[j]] = [lines[j], lines[i]];
       }
