@@ -2,6 +2,7 @@
 // identities, shapes, rank deficiency, relative accuracy on bidiagonal input, non-finite input,
 // and NumPy 2.4.6 singular values (numpy.linalg.svd, LAPACK dgesdd) from
 // test/fixtures/reference/numeric_core.json, written by test/reference/numeric_core.py.
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import reference from '../fixtures/reference/numeric_core.json';
 import { bidiagonalSvdDense } from '../../server/src/numeric/bidiagonalSvd';
@@ -141,5 +142,29 @@ describe('Golub–Kahan–Reinsch SVD', () => {
       expect([result.U!.rows, result.U!.cols, result.V!.rows, result.V!.cols]).toEqual([5, 3, 3, 3]);
       expect(singularValues(transpose(A)).every(Number.isNaN)).toBe(true);
     }
+  });
+
+  it('terminates, converges and reconstructs matrices of zeros, subnormals and huge entries', () => {
+    // Mixed magnitudes exercise the power-of-two scaling, dlarfg's subnormal rescaling and the
+    // deflation logic; before those guards such inputs gave NaN factors and a non-terminating loop.
+    const entry = fc.constantFrom(0, 0, 1, -1, 3, 1e-8, 1e-300, -1e-300, 1e300, 8.095e-320);
+    const matrix = fc
+      .record({ m: fc.integer({ min: 1, max: 9 }), n: fc.integer({ min: 1, max: 9 }) })
+      .chain(({ m, n }) => fc.array(fc.array(entry, { minLength: n, maxLength: n }), { minLength: m, maxLength: m }));
+    fc.assert(
+      fc.property(matrix, (A) => {
+        const m = A.length;
+        const n = A[0].length;
+        const { U, s, V, converged } = svd(A);
+        expect(converged).toBe(true);
+        for (let i = 1; i < s.length; i++) expect(s[i]).toBeLessThanOrEqual(s[i - 1]);
+        const largest = Math.max(...A.flat().map(Math.abs));
+        const USigma = U.map((row) => row.map((value, j) => value * s[j]));
+        const residual = subtract(multiply(USigma, transpose(V)), A);
+        const worst = Math.max(...residual.flat().map(Math.abs));
+        expect(worst).toBeLessThanOrEqual(SAFETY * Math.max(m, n) * EPS * largest);
+      }),
+      { numRuns: 300, seed: 20261202 },
+    );
   });
 });

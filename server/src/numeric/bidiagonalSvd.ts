@@ -15,6 +15,8 @@ const EPS = Number.EPSILON / 2; // unit roundoff, LAPACK's dlamch('E')
 const SAFE_MIN = 2.2250738585072014e-308;
 /** Outer bound of the inner-step budget, per n² (LAPACK dbdsqr's MAXITR). */
 const MAX_ITERATION_FACTOR = 6;
+/** Exact power of two lifting a subnormal column into the normal range (dlarfg's 1/safmin). */
+const RESCALE = 2 ** 600;
 
 export interface BidiagonalSvd {
   /** m×k with orthonormal columns (k = min(m, n)), or null when not requested. */
@@ -115,9 +117,11 @@ function bidiagonalQr(
   let oldLow = -1;
   let oldHigh = -1;
   let direction = 1;
+  let passes = 0;
   let high = n - 1; // last index of the unreduced block still being worked on
   while (high > 0) {
-    if (steps > maxSteps) return false;
+    // Every pass either sweeps (counted in steps) or deflates; the pass bound is a second guard.
+    if (steps > maxSteps || ++passes > maxSteps + 2 * n) return false;
     // Find the top `low` of the unreduced block ending at `high`.
     let largest = Math.abs(d[high]);
     let low = 0;
@@ -307,35 +311,49 @@ function bidiagonalQr(
  * the first slot receives β). Returns τ (0 when x is already a multiple of e₁).
  */
 function householderVector(data: Float64Array, start: number, length: number, stride: number): number {
-  const alpha = data[start];
+  let tailNorm = tailNorm2(data, start, length, stride);
+  if (tailNorm === 0) return 0;
+  let alpha = data[start];
+  let norm = Math.hypot(alpha, tailNorm);
+  // As dlarfg: a column of (nearly) subnormal entries is scaled up by an exact power of two first, so
+  // that τ and v are computed with full relative precision and the reflector stays orthogonal.
+  let rescalings = 0;
+  while (norm < SAFE_MIN / EPS && rescalings < 3) {
+    for (let i = 0; i < length; i++) data[start + i * stride] *= RESCALE;
+    rescalings++;
+    alpha = data[start];
+    tailNorm = tailNorm2(data, start, length, stride);
+    norm = Math.hypot(alpha, tailNorm);
+  }
+  const beta = alpha >= 0 ? -norm : norm;
+  const tau = (beta - alpha) / beta;
+  const inverse = 1 / (alpha - beta);
+  for (let i = 1; i < length; i++) data[start + i * stride] *= inverse;
+  let unscaledBeta = beta;
+  for (let i = 0; i < rescalings; i++) unscaledBeta /= RESCALE;
+  data[start] = unscaledBeta;
+  return tau;
+}
+
+/** Euclidean norm of data[start + i·stride], 1 ≤ i < length, scaled only when squares under- or overflow. */
+function tailNorm2(data: Float64Array, start: number, length: number, stride: number): number {
   let sumOfSquares = 0;
   for (let i = 1; i < length; i++) {
     const value = data[start + i * stride];
     sumOfSquares += value * value;
   }
-  let tailNorm = Math.sqrt(sumOfSquares);
-  if (!(sumOfSquares > SAFE_MIN / EPS) || sumOfSquares === Infinity) {
-    // Scaled accumulation when the plain sum of squares under- or overflows.
-    let scale = 0;
-    let sum = 1;
-    for (let i = 1; i < length; i++) {
-      const magnitude = Math.abs(data[start + i * stride]);
-      if (magnitude === 0) continue;
-      if (scale < magnitude) {
-        sum = 1 + sum * (scale / magnitude) ** 2;
-        scale = magnitude;
-      } else sum += (magnitude / scale) ** 2;
-    }
-    tailNorm = scale * Math.sqrt(sum);
+  if (sumOfSquares > SAFE_MIN / EPS && sumOfSquares !== Infinity) return Math.sqrt(sumOfSquares);
+  let scale = 0;
+  let sum = 1;
+  for (let i = 1; i < length; i++) {
+    const magnitude = Math.abs(data[start + i * stride]);
+    if (magnitude === 0) continue;
+    if (scale < magnitude) {
+      sum = 1 + sum * (scale / magnitude) ** 2;
+      scale = magnitude;
+    } else sum += (magnitude / scale) ** 2;
   }
-  if (tailNorm === 0) return 0;
-  const norm = Math.hypot(alpha, tailNorm);
-  const beta = alpha >= 0 ? -norm : norm;
-  const tau = (beta - alpha) / beta;
-  const inverse = 1 / (alpha - beta);
-  for (let i = 1; i < length; i++) data[start + i * stride] *= inverse;
-  data[start] = beta;
-  return tau;
+  return scale * Math.sqrt(sum);
 }
 
 /**
@@ -462,7 +480,11 @@ function tallBidiagonalSvd(
     for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) Vt[j * n + i] = p[i * n + j];
   }
 
-  const converged = bidiagonalQr(d, e, n, Ut, m, Vt, n);
+  // Rounding cannot make a finite input non-finite after the scaling below; this guards the loop.
+  let finite = true;
+  for (let i = 0; i < n; i++) if (!Number.isFinite(d[i]) || (i < n - 1 && !Number.isFinite(e[i]))) finite = false;
+  if (!finite) d.fill(NaN);
+  const converged = finite && bidiagonalQr(d, e, n, Ut, m, Vt, n);
   if (!converged) noteNonConvergence('svd-jacobi'); // the SVD kernels' shared label in the tally
 
   // Make the values non-negative (flipping the matching row of Vᵀ), then sort descending.
