@@ -259,7 +259,8 @@ export function placePoles(A: Rows, B: Rows, poles: Complex[], settings: Analysi
   const gainNorm = frobenius(K);
   const poleScale = Math.max(frobenius(A), ...requested.map((p) => Math.hypot(p.re, p.im)));
   if (accuracy.eigenvectorCondition > settings.placementConditionLimit) warnings.push('ill-conditioned-eigenvectors');
-  if (accuracy.maxRelativePoleError > Math.sqrt(EPS)) warnings.push('poles-inaccurate');
+  // Written so that NaN (poles beyond the double range, an overflowed gain) counts as inaccurate.
+  if (!(accuracy.maxRelativePoleError <= Math.sqrt(EPS))) warnings.push('poles-inaccurate');
   if (frobenius(B) * gainNorm > settings.placementConditionLimit * Math.max(poleScale, Number.MIN_VALUE)) warnings.push('large-gain');
   const fragile = warnings.some((w) => w === 'ill-conditioned-eigenvectors' || w === 'poles-inaccurate' || w === 'large-gain');
   return {
