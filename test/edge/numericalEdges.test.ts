@@ -182,6 +182,16 @@ describe('numerical edge cases', () => {
     expect(analysis.controllers[0].K).toBeNull();
   });
 
+  it('poles so fast the gain overflows (−4e200, or spec settling <= 1e-300 s): the NaN gain carries a warning, never silent', () => {
+    for (const design of ['poles = [-4e200, -5e200]', 'spec settling <= 1e-300 s, overshoot <= 16 %']) {
+      const analysis = analyze(plant('0, 1; -2, -3', '0; 1', '1, 0') + controller(design));
+      const report = analysis.controllers[0];
+      const broken = report.K === null || report.K.flat().some((k) => !Number.isFinite(k));
+      expect(broken, design).toBe(true);
+      expect(report.diagnostics.some((d) => d.severity === 'error' || d.code === 'control/fragile-placement'), design).toBe(true);
+    }
+  });
+
   it('a complex pole without its conjugate: error model/unpaired-pole', () => {
     const analysis = analyze(plant('0, 1; -2, -3', '0; 1', '1, 0') + controller('poles = [-1 + 2j, -3]'));
     const error = analysis.diagnostics.find((d) => d.code === 'model/unpaired-pole');
