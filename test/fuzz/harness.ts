@@ -372,7 +372,14 @@ export interface RunFigures {
 }
 
 /** Runs `count` inputs split over the three generators; seeded, so a run is repeatable. */
-export function runFuzz(root: string, count: number, seed: number, onProgress?: (done: number, figures: RunFigures) => void): RunFigures {
+export function runFuzz(
+  root: string,
+  count: number,
+  seed: number,
+  onProgress?: (done: number, figures: RunFigures) => void,
+  /** First input of this shard (a multiple of 100): a run split over processes gives the same inputs. */
+  from = 0,
+): RunFigures {
   const samples = readSamples(root);
   const generators: [string, fc.Arbitrary<string>, number][] = [
     ['token-stream', tokenStream, 0.35],
@@ -396,7 +403,7 @@ export function runFuzz(root: string, count: number, seed: number, onProgress?: 
   const start = performance.now();
   // Rounds of 100 inputs, each split over the generators by share, so a partial run is representative.
   const round = 100;
-  for (let roundStart = 0, roundIndex = 0; roundStart < count; roundStart += round, roundIndex++) {
+  for (let roundStart = Math.floor(from / round) * round, roundIndex = Math.floor(from / round); roundStart < count; roundStart += round, roundIndex++) {
     const size = Math.min(round, count - roundStart);
     let used = 0;
     generators.forEach(([name, arbitrary, share], generatorIndex) => {

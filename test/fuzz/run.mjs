@@ -14,6 +14,8 @@ const option = (name, fallback) => {
 };
 const count = option('count', 10000);
 const seed = option('seed', 1);
+// --from N: start at input N (a multiple of 100), to split one run over processes.
+const from = option('from', 0);
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..', '..');
 const scratch = mkdtempSync(join(tmpdir(), 'loopwright-fuzz-'));
@@ -22,7 +24,7 @@ await build({ absWorkingDir: root, entryPoints: ['test/fuzz/harness.ts'], bundle
 const harness = createRequire(import.meta.url)(bundle);
 
 function print(figures, write) {
-  write(`Fuzz run: seed ${seed}, count ${count}`);
+  write(`Fuzz run: seed ${seed}, count ${count}${from ? `, inputs from ${from}` : ''}`);
   write(`  inputs                       ${figures.inputs} (${Object.entries(figures.byGenerator).map(([name, n]) => `${name} ${n}`).join(', ')})`);
   write(`  uncaught exceptions          ${figures.uncaughtExceptions}`);
   write(`  analyses over budget         ${figures.overBudget} (most iterations in one analysis: ${figures.maxIterations})`);
@@ -34,11 +36,11 @@ function print(figures, write) {
 }
 let lastReport = 0;
 const figures = harness.runFuzz(root, count, seed, (done, partial) => {
-  if (done - lastReport >= 5000) {
+  if (done - lastReport >= 1000) {
     lastReport = done;
     print(partial, (line) => process.stderr.write(`${line}\n`));
   }
-});
+}, from);
 const examplesFile = join(scratch, 'violations.json');
 writeFileSync(examplesFile, JSON.stringify(figures.examples, null, 2));
 print(figures, (line) => console.log(line));
