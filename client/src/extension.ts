@@ -20,7 +20,9 @@ import { RestartBudget } from './restartBudget';
 import {
   AnalysisUpdatedNotification,
   ControllerDataRequest,
+  ControllersRequest,
   type AnalysisUpdatedParams,
+  type ControllersResult,
   type ControllerDataParams,
   type ControllerDataResult,
 } from './protocol';
@@ -92,6 +94,7 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
 
   // Panels also refresh on edits (after the server's debounce) in case the server sends no update notice.
   const refreshTimers = new Map<string, ReturnType<typeof setTimeout>>();
+  let cursorTimer: ReturnType<typeof setTimeout> | undefined;
   const scheduleRefresh = (uri: string) => {
     clearTimeout(refreshTimers.get(uri));
     const delay = vscode.workspace.getConfiguration('loopwright').get<number>('debounceMs', 150) + 350;
@@ -112,6 +115,21 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
       panels.refreshDocument(params.uri);
     }),
     { dispose: () => refreshTimers.forEach((timer) => clearTimeout(timer)) },
+    // The response panel follows the controller block under the cursor.
+    vscode.window.onDidChangeTextEditorSelection((event) => {
+      const document = event.textEditor.document;
+      const uri = document.uri.toString();
+      if (document.languageId !== 'plant' || !panels.hasPanelFor(uri)) return;
+      clearTimeout(cursorTimer);
+      const line = event.selections[0]?.active.line ?? 0;
+      cursorTimer = setTimeout(() => {
+        void languageClient.sendRequest<ControllersResult | null>(ControllersRequest, { uri }).then((result) => {
+          const above = (result?.controllers ?? []).filter((c) => c.line <= line).sort((a, b) => b.line - a.line);
+          if (above[0]) void panels.follow(uri, above[0].name);
+        }, () => undefined);
+      }, 200);
+    }),
+    { dispose: () => clearTimeout(cursorTimer) },
     ...registerCommands({
       client: languageClient,
       panels,

@@ -9,6 +9,9 @@ import { repoRoot, resultsDir, startEditor, type Editor } from './harness';
 // The hoist sample with the torque constant misspelt in B: an unknown name the server must flag.
 const hoistText = readFileSync(join(repoRoot, 'samples', 'hoist.plant'), 'utf8');
 const faultyHoist = hoistText.replace('B = [0; kt/J]', 'B = [0; kq/J]');
+// The hoist with a second, faster controller after the first: the panel follows the cursor.
+const twoControllers = `${hoistText}\ncontroller lift_fast for hoist {\n  poles = [-8 + 6j, -8 - 6j]\n  track height\n}\n`;
+const fastControllerLine = twoControllers.split('\n').findIndex((line) => line.startsWith('controller lift_fast')) + 1;
 
 // Digits of a number as the editor shows it: the minus may be ASCII or U+2212.
 const minus = '[-−]';
@@ -18,7 +21,7 @@ describe('Loopwright in a real editor', () => {
 
   beforeAll(async () => {
     expect(faultyHoist).not.toBe(hoistText); // the sample still has the line this scenario edits
-    editor = await startEditor({ files: { 'faulty-hoist.plant': faultyHoist } });
+    editor = await startEditor({ files: { 'faulty-hoist.plant': faultyHoist, 'two-controllers.plant': twoControllers } });
   });
 
   afterEach(async (context) => {
@@ -200,5 +203,25 @@ describe('Loopwright in a real editor', () => {
     expect(await frame.locator('.lw-plot-outputs .u-legend').innerText()).toMatch(/height/);
     await editor.screenshot('response-panel');
     await editor.page.locator('iframe.webview.ready').last().screenshot({ path: join(resultsDir, 'e2e-response-panel-only.png') });
+  });
+
+  it('follows the controller under the cursor in the response panel', async () => {
+    await editor.openFile('two-controllers.plant');
+    await editor.goTo(fastControllerLine - 3, 3); // inside the first controller (lift)
+    await editor.runCommand('Loopwright: Show Response Panel');
+    // Two controllers: the command asks which one, with the one under the cursor preselected.
+    const picker = editor.page.locator('.quick-input-widget');
+    await picker.locator('.quick-input-list-entry', { hasText: 'lift_fast' }).waitFor();
+    await editor.page.keyboard.press('Enter');
+    await picker.waitFor({ state: 'hidden' });
+    await editor.page.locator('.tab', { hasText: /Response: lift$/ }).waitFor();
+    expect(await editor.page.locator('.tab', { hasText: 'Response: lift_fast' }).count()).toBe(0);
+    await editor.openFile('two-controllers.plant');
+    await editor.goTo(fastControllerLine + 1, 3); // inside lift_fast
+    await editor.page.locator('.tab', { hasText: 'Response: lift_fast' }).waitFor({ timeout: 30_000 });
+    const frame = editor.webview();
+    await frame.locator('#plots[data-rendered="true"]').waitFor({ timeout: 60_000 });
+    // lift_fast places −8 ± 6j: still two crosses, now for the faster pair.
+    expect(await frame.locator('svg.lw-pole-map .lw-cross').count()).toBe(2);
   });
 });

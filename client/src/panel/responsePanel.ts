@@ -30,6 +30,28 @@ export class ResponsePanels implements vscode.Disposable {
     await panel.refresh();
   }
 
+  /** Documents that have a panel open (the cursor is followed only there). */
+  hasPanelFor(uri: string): boolean {
+    for (const panel of this.open.values()) if (panel.ref.uri === uri) return true;
+    return false;
+  }
+
+  /**
+   * Follows the cursor: the most recently shown panel of this document switches to `controller`
+   * (the controller block the cursor is in), unless a panel of that controller is already open.
+   */
+  async follow(uri: string, controller: string): Promise<void> {
+    const target = `${uri}#${controller}`;
+    if (this.open.has(target)) return;
+    const panel = [...this.open.entries()].reverse().find(([, entry]) => entry.ref.uri === uri);
+    if (!panel) return;
+    const [key, entry] = panel;
+    this.open.delete(key);
+    entry.retarget({ uri, controller }, () => this.open.delete(target));
+    this.open.set(target, entry);
+    await entry.refresh();
+  }
+
   /** Re-requests the data of every panel showing a controller of this document. */
   refreshDocument(uri: string): void {
     for (const panel of this.open.values()) if (panel.ref.uri === uri) void panel.refresh();
@@ -49,9 +71,9 @@ class ResponsePanel {
 
   constructor(
     extensionUri: vscode.Uri,
-    readonly ref: ControllerRef,
+    public ref: ControllerRef,
     private readonly fetch: FetchControllerData,
-    onDispose: () => void,
+    private onDispose: () => void,
   ) {
     const dist = vscode.Uri.joinPath(extensionUri, 'dist');
     this.webview = vscode.window.createWebviewPanel(
@@ -68,7 +90,13 @@ class ResponsePanel {
         if (this.pending) void this.webview.webview.postMessage(this.pending);
       }
     });
-    this.webview.onDidDispose(onDispose);
+    this.webview.onDidDispose(() => this.onDispose());
+  }
+
+  retarget(ref: ControllerRef, onDispose: () => void): void {
+    this.ref = ref;
+    this.onDispose = onDispose;
+    this.webview.title = `Response: ${ref.controller}`;
   }
 
   reveal(): void {
