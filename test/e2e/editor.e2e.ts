@@ -214,7 +214,7 @@ describe('Loopwright in a real editor', () => {
     await picker.locator('.quick-input-list-entry', { hasText: 'lift_fast' }).waitFor();
     await editor.page.keyboard.press('Enter');
     await picker.waitFor({ state: 'hidden' });
-    await editor.page.locator('.tab', { hasText: /Response: lift$/ }).waitFor();
+    await editor.page.locator('.tab', { hasText: /Response: lift$/ }).first().waitFor();
     expect(await editor.page.locator('.tab', { hasText: 'Response: lift_fast' }).count()).toBe(0);
     await editor.openFile('two-controllers.plant');
     await editor.goTo(fastControllerLine + 1, 3); // inside lift_fast
