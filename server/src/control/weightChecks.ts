@@ -63,9 +63,15 @@ export function checkPositiveDefinite(M: Rows): DefinitenessCheck {
 export function symmetricEigenvalues(M: Rows): number[] {
   const n = M.length;
   if (n === 0) return [];
-  const symmetric = M.map((row, i) => row.map((value, j) => 0.5 * (value + M[j][i])));
+  // Scaled to a unit largest entry first: entries near the double range overflow inside the
+  // tridiagonal QL iteration, which then indexes out of bounds and throws (found by fuzzing).
+  let scale = 0;
+  for (const row of M) for (const value of row) scale = Math.max(scale, Math.abs(value));
+  if (!Number.isFinite(scale)) return new Array<number>(n).fill(NaN);
+  if (scale === 0) return new Array<number>(n).fill(0);
+  const symmetric = M.map((row, i) => row.map((value, j) => 0.5 * (value / scale + M[j][i] / scale)));
   const decomposition = new EigenvalueDecomposition(new Matrix(symmetric), { assumeSymmetric: true });
-  return decomposition.realEigenvalues.slice().sort((a, b) => a - b);
+  return decomposition.realEigenvalues.map((value) => value * scale).sort((a, b) => a - b);
 }
 
 export function checkPositiveSemidefinite(M: Rows): DefinitenessCheck {
