@@ -192,6 +192,13 @@ describe('numerical edge cases', () => {
     }
   });
 
+  it('a weight with entries near the double range (Q diagonal 1.8e308): no exception, an LQR error instead of a gain', () => {
+    const analysis = analyze(plant('0, 1; -2, -3', '0; 1', '1, 0') + controller('lqr Q = diag(1, 1.7976931348623157e308), R = [1]'));
+    const report = analysis.controllers[0];
+    const finite = report.K !== null && report.K.flat().every(Number.isFinite);
+    expect(finite || report.diagnostics.some((d) => d.severity === 'error')).toBe(true);
+  });
+
   it('a complex pole without its conjugate: error model/unpaired-pole', () => {
     const analysis = analyze(plant('0, 1; -2, -3', '0; 1', '1, 0') + controller('poles = [-1 + 2j, -3]'));
     const error = analysis.diagnostics.find((d) => d.code === 'model/unpaired-pole');
