@@ -199,6 +199,14 @@ describe('numerical edge cases', () => {
     expect(finite || report.diagnostics.some((d) => d.severity === 'error')).toBe(true);
   });
 
+  it('a subnormal entry (4.9e-324) below the diagonal: eigenvalues as NumPy gives them, not NaN', () => {
+    const analysis = analyze(plant('-3, 1.298e-297, -0.003; 0, 0, -20; 4.9e-324, 21.889, -16', '4; 100; 0', '1, 0, 0'));
+    // numpy.linalg.eigvals of the same matrix (NumPy 2.4): −3, −8 ± 19.3333908j.
+    const values = analysis.plants[0].eigenvalues;
+    expect(values.every((e) => Number.isFinite(e.re) && Number.isFinite(e.im))).toBe(true);
+    expect(poleError([{ re: -3, im: 0 }, { re: -8, im: 19.3333908 }, { re: -8, im: -19.3333908 }], values)).toBeLessThan(1e-7);
+  });
+
   it('a complex pole without its conjugate: error model/unpaired-pole', () => {
     const analysis = analyze(plant('0, 1; -2, -3', '0; 1', '1, 0') + controller('poles = [-1 + 2j, -3]'));
     const error = analysis.diagnostics.find((d) => d.code === 'model/unpaired-pole');
