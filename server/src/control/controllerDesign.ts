@@ -126,6 +126,8 @@ function splitColumns(K: Rows, at: number): { left: Rows; right: Rows } {
 interface Gains {
   K: Rows; // m × (n_d + q)
   closedLoopPoles: Complex[];
+  /** The requested poles in s (placement and spec designs), before any z = e^{sT} map. */
+  requestedContinuousPoles?: Complex[];
   details: Record<string, unknown>;
 }
 
@@ -216,6 +218,7 @@ function computeGains(
   return {
     K: placement.K,
     closedLoopPoles: placement.achievedPoles,
+    requestedContinuousPoles: requested,
     details: {
       placement: {
         method: placement.method,
@@ -328,6 +331,11 @@ export function designController(
   const augmented = integrated.length ? integralAugmentation(model, integrated) : { A: model.A, B: model.B };
   const gains = computeGains(controller, plant, model, augmented, integrated.length, settings, out);
   if (!gains) return report;
+  if (!gains.K.every((row) => row.every(Number.isFinite))) {
+    // Poles or weights beyond the double range: no gain to show, whatever the method said.
+    out.push(findings.gainOverflow.create(anchor(controller), [plant.name]));
+    return report;
+  }
   const { left: Kx, right: Ki } = splitColumns(gains.K, nd);
   report.K = Kx;
   report.Ki = integrated.length ? Ki : null;
@@ -417,9 +425,18 @@ export function designController(
   // Sampling advice and single-precision check for sampled designs.
   if (model.domain === 'discrete') {
     const T = model.T as number;
-    // Poles inside |z| < e^{−π} have no continuous counterpart below the Nyquist rate (dead-beat
-    // and computation-delay poles); the advice on T concerns the others.
-    const continuousPoles = mapPolesToContinuous(gains.closedLoopPoles.filter((z) => Math.hypot(z.re, z.im) > Math.exp(-Math.PI)), T);
+    // The advice on T concerns the continuous closed-loop poles the design asks for: the requested
+    // s-poles for placement and spec designs; for LQR the achieved z-poles mapped back, leaving
+    // out the computation-delay states' poles (the ones nearest z = 0).
+    const continuousPoles =
+      gains.requestedContinuousPoles ??
+      mapPolesToContinuous(
+        [...gains.closedLoopPoles]
+          .sort((a, b) => Math.hypot(a.re, a.im) - Math.hypot(b.re, b.im))
+          .slice(model.delayStates)
+          .filter((z) => Math.hypot(z.re, z.im) > 0),
+        T,
+      );
     const advice = adviseSamplePeriod(T, continuousPoles, eigenvaluesOf(plant.A), {
       samplesPerTimeConstant: settings.samplesPerTimeConstant,
     });

@@ -44,6 +44,7 @@ import { specViolation } from './spec-violation';
 import { uncontrollableDiagnostic } from './uncontrollable';
 import { zeroDcGainDiagnostic } from './zero-dc-gain';
 import { tooManySetpointsKind } from './too-many-setpoints';
+import { gainOverflowKind } from './gain-overflow';
 import { suggestIntegralPole } from '../integralAction';
 import type { IntegralFeasibility } from '../integralAction';
 
@@ -74,6 +75,7 @@ function poleText(value: Complex): string {
 
 export const designDiagnostics = {
   weightShape: lqrWeightShape,
+  gainOverflow: gainOverflowKind,
   specUnusable,
   specViolation,
   noInputs,

@@ -41,8 +41,10 @@ import { defineDiagnostic } from '../../model/diagnostics/define';
  */
 
 import { tooManySetpointsKind } from './too-many-setpoints';
+import { gainOverflowKind } from './gain-overflow';
 
 export {
+  gainOverflowKind,
   currentFormFeedthrough,
   dcGainUndefinedKind,
   defectiveClosedLoopKind,
@@ -111,6 +113,7 @@ export const controlDiagnosticKinds = [
   specUnusable,
   specViolation,
   tooManySetpointsKind,
+  gainOverflowKind,
   uncontrollableKind,
   unobservableKind,
   zeroDcGainKind,
