@@ -3,3 +3,11 @@ export { eigenvalues, singularValues, matrixExponential, solveContinuousRiccati,
 export { placePoles } from '../../server/src/control/placement';
 export { checkText, analyze } from '../../server/src/analyze';
 export { resolveSettings } from '../../server/src/control/settings';
+export { analyzeModes } from '../../server/src/control/modes';
+export { analyzeControllability } from '../../server/src/control/structure';
+export { setpointGains } from '../../server/src/control/setpoint';
+export { designLqr } from '../../server/src/control/lqr';
+export { discretiseZeroOrderHold } from '../../server/src/control/discretise';
+export { simulateStepResponses } from '../../server/src/control/stepResponse';
+export { loopMargins, stateFeedbackLoop } from '../../server/src/control/margins';
+export { invariantZeros } from '../../server/src/numeric';

@@ -135,6 +135,41 @@ for (const testCase of cases) {
 }
 console.log('  (ratio > 1: Loopwright slower. SciPy placement is skipped above n = 60, where it takes seconds.)');
 
+// ---------------------------------------------------------------- the engine's analyses one by one
+// Each analysis of a controller design on the same random plants (stabilised by LQR first), so
+// every analysis the engine runs has a figure per size. No SciPy counterpart for most of them.
+console.log('\nEngine analyses on the same plants, median CPU ms');
+const analysisNames = ['modes', 'controllability (staircase + PBH margin)', 'invariant zeros', 'set-point gains', 'LQR design', 'zero-order hold', 'step response (linear)', 'loop margins'];
+console.log(`  ${'analysis'.padEnd(42)} ${[10, 50, 100, 200].map((n) => `n=${n}`.padStart(10)).join('')}`);
+const perSize = {};
+for (const n of [10, 50, 100, 200]) {
+  const random = generator(2000 + n);
+  const m = Math.max(1, Math.round(n / 10));
+  const A = randomMatrix(random, n, n, 1 / Math.sqrt(n)).map((row, i) => row.map((v, j) => (i === j ? v - 0.5 : v)));
+  const B = randomMatrix(random, n, m);
+  const C = randomMatrix(random, 1, n);
+  const D = [new Array(m).fill(0)];
+  const eye = (k) => Array.from({ length: k }, (_, i) => Array.from({ length: k }, (_, j) => (i === j ? 1 : 0)));
+  const lqr = kernels.designLqr(A, B, eye(n), eye(m), undefined, 'continuous');
+  const K = lqr.K;
+  const settings = kernels.resolveSettings();
+  const repeats = Math.max(3, Math.min(15, Math.round(300 / n)));
+  perSize[n] = {
+    'modes': medianMs(() => kernels.analyzeModes(A, 'continuous'), repeats),
+    'controllability (staircase + PBH margin)': n <= 60 ? medianMs(() => kernels.analyzeControllability(A, B, 'continuous'), repeats) : medianMs(() => kernels.analyzeControllability(A, B, 'continuous', { computeMargin: false }), repeats),
+    'invariant zeros': medianMs(() => kernels.invariantZeros(A, B, C, D), repeats),
+    'set-point gains': medianMs(() => kernels.setpointGains(A, B, C, D, [0], K, 'continuous', settings), repeats),
+    'LQR design': medianMs(() => kernels.designLqr(A, B, eye(n), eye(m), undefined, 'continuous'), repeats),
+    'zero-order hold': medianMs(() => kernels.discretiseZeroOrderHold(A, B, 0.01), repeats),
+    'step response (linear)': medianMs(() => kernels.simulateStepResponses({ domain: 'continuous', A, B, C, D, K, tracked: [0], points: settings.simulationPoints }), Math.max(3, Math.round(repeats / 3))),
+    'loop margins': medianMs(() => kernels.loopMargins(kernels.stateFeedbackLoop(A, B, K), 'continuous'), Math.max(3, Math.round(repeats / 3))),
+  };
+}
+for (const name of analysisNames) {
+  console.log(`  ${name.padEnd(42)} ${[10, 50, 100, 200].map((n) => perSize[n][name].toFixed(2).padStart(10)).join('')}`);
+}
+console.log('  (controllability above n = 60: staircase only; the PBH margin is left out of live analysis there)');
+
 // ---------------------------------------------------------------- language server latency
 const lspBench = join(root, 'test/bench/lsp.mjs');
 if (existsSync(lspBench)) {
