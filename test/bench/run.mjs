@@ -177,3 +177,9 @@ if (existsSync(lspBench)) {
   const run = spawnSync(process.execPath, [lspBench], { stdio: 'inherit' });
   if (run.status !== 0) console.log('(language-server bench failed)');
 }
+
+// ---------------------------------------------------------------- a 500-state model in the server
+{
+  const run = spawnSync(process.execPath, [join(root, 'test/bench/hover-large.cjs')], { stdio: 'inherit' });
+  if (run.status !== 0) console.log('(500-state latency bench failed)');
+}
