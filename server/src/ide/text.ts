@@ -1,6 +1,7 @@
 // Position ↔ offset conversion on the document text (UTF-16 code units, as the editor protocol
 // counts). Line starts are cached per text string so every feature shares one scan.
 import type { Position, Range } from '../../../grammar/src/ast';
+import { LineIndex } from '../../../grammar/src/positions';
 
 const cache = new Map<string, number[]>();
 const CACHE_LIMIT = 8;
@@ -8,16 +9,7 @@ const CACHE_LIMIT = 8;
 export function lineStarts(text: string): number[] {
   const cached = cache.get(text);
   if (cached) return cached;
-  const starts = [0];
-  for (let i = 0; i < text.length; i++) {
-    const code = text.charCodeAt(i);
-    if (code === 13 /* \r */) {
-      if (text.charCodeAt(i + 1) === 10) i++;
-      starts.push(i + 1);
-    } else if (code === 10 /* \n */) {
-      starts.push(i + 1);
-    }
-  }
+  const starts = new LineIndex(text).lineStarts; // the parser's own line scan
   if (cache.size >= CACHE_LIMIT) cache.delete(cache.keys().next().value as string);
   cache.set(text, starts);
   return starts;
