@@ -160,13 +160,19 @@ describe('Loopwright in a real editor', () => {
       await page.keyboard.press('Control+.');
       // Either the quick-fix menu opens or the editor says there is none here.
       const menu = page.locator('.action-widget:not(.action-list-submenu-panel)').filter({ visible: true });
-      const opened = await menu.first().waitFor({ timeout: 5000 }).then(
+      // The server answers code actions after bringing its check up to date: allow for a busy machine.
+      const opened = await menu.first().waitFor({ timeout: target.code.includes('prescaler') ? 30_000 : 8000 }).then(
         () => true,
         () => false, // "No code actions available" at this position
       );
       if (!opened) continue;
       const fix = menu.locator('.monaco-list-row', { hasText: /integral/i }).first();
-      if ((await fix.count()) > 0) {
+      // The menu's rows can appear a moment after the menu itself: wait for the row, briefly.
+      const offered = await fix.waitFor({ timeout: target.code.includes('prescaler') ? 15_000 : 2000 }).then(
+        () => true,
+        () => false,
+      );
+      if (offered) {
         await fix.click();
         appliedFor = target.code;
         break;
