@@ -9,6 +9,7 @@
 // loop at the plant input with it.
 import type { Complex, Rows } from '../numeric/types';
 import { eigenvalues, solveLinear } from '../numeric';
+import { multiplyRows as multiply } from './controlLinearAlgebra';
 
 export interface StateSpace {
   A: Rows;
@@ -27,15 +28,6 @@ export interface CombinedClosedLoop {
   controller: StateSpace;
 }
 
-function multiply(a: Rows, b: Rows): Rows {
-  const inner = b.length;
-  const cols = inner === 0 ? 0 : b[0].length;
-  return a.map((row) => {
-    const out = new Array<number>(cols).fill(0);
-    for (let k = 0; k < inner; k++) for (let j = 0; j < cols; j++) out[j] += row[k] * b[k][j];
-    return out;
-  });
-}
 const add = (a: Rows, b: Rows): Rows => a.map((row, i) => row.map((value, j) => value + b[i][j]));
 const subtract = (a: Rows, b: Rows): Rows => a.map((row, i) => row.map((value, j) => value - b[i][j]));
 const negate = (a: Rows): Rows => a.map((row) => row.map((value) => -value));

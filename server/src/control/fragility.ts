@@ -9,6 +9,7 @@ import { eigenvaluesOf } from './controlLinearAlgebra';
 import { steadyStateGain } from './dcGain';
 import { seededRandom } from './placementRobust';
 import type { Domain } from './structure';
+import { multiplyRows as multiply } from './controlLinearAlgebra';
 
 export interface PlantMatrices {
   A: Rows;
@@ -73,9 +74,6 @@ export interface FragilityResult {
   };
 }
 
-function multiply(a: Rows, b: Rows): Rows {
-  return a.map((row) => (b[0] ?? []).map((_, j) => row.reduce((sum, v, k) => sum + v * b[k][j], 0)));
-}
 
 function stabilityMeasure(value: Complex, domain: Domain): number {
   return domain === 'continuous' ? value.re : Math.hypot(value.re, value.im) - 1;

@@ -13,6 +13,7 @@ import type { Complex, Rows } from '../numeric/types';
 import { eigenvalues, solveLinear } from '../numeric';
 import { designLqr } from './lqr';
 import { checkPositiveSemidefinite } from './weightChecks';
+import { transposeRows as transpose, multiplyRows as multiply } from './controlLinearAlgebra';
 
 export type KalmanFailure =
   | 'dimension-mismatch'
@@ -41,21 +42,7 @@ export interface KalmanResult {
   mode?: Complex;
 }
 
-function transpose(M: Rows): Rows {
-  const rows = M.length;
-  const cols = rows === 0 ? 0 : M[0].length;
-  return Array.from({ length: cols }, (_, j) => Array.from({ length: rows }, (_, i) => M[i][j]));
-}
 
-function multiply(a: Rows, b: Rows): Rows {
-  const inner = b.length;
-  const cols = inner === 0 ? 0 : b[0].length;
-  return a.map((row) => {
-    const out = new Array<number>(cols).fill(0);
-    for (let k = 0; k < inner; k++) for (let j = 0; j < cols; j++) out[j] += row[k] * b[k][j];
-    return out;
-  });
-}
 
 export interface KalmanProblem {
   A: Rows;

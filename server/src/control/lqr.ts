@@ -16,6 +16,7 @@ import { eigenvalues, solveContinuousRiccati, solveDiscreteRiccati, solveLinear 
 import type { Complex, Rows } from '../numeric/types';
 import { analyzeControllability, analyzeObservability, classifyEigenvalue, eigenvalueTolerance } from './structure';
 import { checkPositiveDefinite, checkPositiveSemidefinite } from './weightChecks';
+import { transposeRows as transpose, multiplyRows as multiply } from './controlLinearAlgebra';
 
 export type LqrFailure =
   | 'dimension-mismatch'
@@ -42,26 +43,7 @@ export interface LqrResult {
   classicalMarginsApply: boolean;
 }
 
-function transpose(M: Rows): Rows {
-  const rows = M.length;
-  const cols = rows === 0 ? 0 : M[0].length;
-  return Array.from({ length: cols }, (_, j) => Array.from({ length: rows }, (_, i) => M[i][j]));
-}
 
-function multiply(a: Rows, b: Rows): Rows {
-  const inner = b.length;
-  const cols = inner === 0 ? 0 : b[0].length;
-  return a.map((row) => {
-    const out = new Array<number>(cols).fill(0);
-    for (let k = 0; k < inner; k++) {
-      const value = row[k];
-      if (value === 0) continue;
-      const bk = b[k];
-      for (let j = 0; j < cols; j++) out[j] += value * bk[j];
-    }
-    return out;
-  });
-}
 
 function isDiagonal(M: Rows): boolean {
   return M.every((row, i) => row.every((value, j) => i === j || value === 0));

@@ -24,6 +24,7 @@ import type { Complex, ComplexRows, Rows } from '../numeric/types';
 import { eigenvalues, solveComplexLinear, solveLinear } from '../numeric';
 import type { StateSpace } from './combinedClosedLoop';
 import { frequencyPoint, logarithmicGrid, transferEvaluator } from './frequencyResponse';
+import { multiplyRows as multiply } from './controlLinearAlgebra';
 
 export interface InputLoopMargins {
   input: number;
@@ -52,15 +53,6 @@ export interface LoopMarginsResult {
   highestFrequency: number;
 }
 
-function multiply(a: Rows, b: Rows): Rows {
-  const inner = b.length;
-  const cols = inner === 0 ? 0 : b[0].length;
-  return a.map((row) => {
-    const out = new Array<number>(cols).fill(0);
-    for (let k = 0; k < inner; k++) for (let j = 0; j < cols; j++) out[j] += row[k] * b[k][j];
-    return out;
-  });
-}
 
 /** L(λ) = K (λI − A)⁻¹ B as a state-space model. */
 export function stateFeedbackLoop(A: Rows, B: Rows, K: Rows): StateSpace {

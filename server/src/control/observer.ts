@@ -10,6 +10,7 @@
 import type { Complex, Rows } from '../numeric/types';
 import type { AnalysisSettings } from './settings';
 import { placePoles, type PlacementResult } from './placement';
+import { transposeRows as transpose } from './controlLinearAlgebra';
 
 export interface ObserverPlacementResult {
   ok: boolean;
@@ -26,11 +27,6 @@ export interface ObserverPlacementResult {
   failure?: PlacementResult['failure'];
 }
 
-function transpose(M: Rows): Rows {
-  const rows = M.length;
-  const cols = rows === 0 ? 0 : M[0].length;
-  return Array.from({ length: cols }, (_, j) => Array.from({ length: rows }, (_, i) => M[i][j]));
-}
 
 export function designObserverByPlacement(
   A: Rows,
