@@ -82,6 +82,18 @@ export interface CallExpr extends Node {
 export interface MatrixExpr extends Node {
   kind: 'matrix';
   rows: MatrixRow[];
+  /**
+   * Present on a large all-number matrix read in one piece (grammar/src/plainMatrix.ts): its
+   * values row by row, so the model need not walk `rows` (built on first read). Not
+   * enumerable: the tree reads and compares the same with or without it.
+   */
+  readonly plain?: PlainMatrixEntries;
+}
+
+/** The entries of an all-number matrix: real values row by row, and each row's length. */
+export interface PlainMatrixEntries {
+  values: Float64Array;
+  rowLengths: Int32Array;
 }
 
 export interface MatrixRow extends Node {

@@ -28,7 +28,7 @@ import type {
   SpecItem,
   SyntaxDiagnostic,
 } from './ast';
-import { foldPlainNumberMatrices, FOLD_MIN_ENTRIES } from './plainMatrix';
+import { FOLD_MIN_ENTRIES, plainMatrixNode, setFoldThreshold, type PlainMatrixScan } from './plainMatrix';
 import { LineIndex } from './positions';
 import { cutStatements, MAX_NESTING, type Statement, type StatementUnit } from './statements';
 import * as T from './tokens';
@@ -68,11 +68,9 @@ class PlantParser extends EmbeddedActionsParser {
   statementEnd = 0;
   /** Span including the parentheses for parenthesised expressions (the node itself excludes them). */
   outerSpans = new WeakMap<Expr, { start: number; end: number }>();
-  /** Trees of the all-number matrices folded into single tokens before parsing. */
-  foldedMatrices = new Map<IToken, MatrixExpr>();
 
   constructor() {
-    super(T.allTokens, { recoveryEnabled: true, maxLookahead: 3 });
+    super(T.parserTokens, { recoveryEnabled: true, maxLookahead: 3 });
     this.performSelfAnalysis();
   }
 
@@ -330,7 +328,7 @@ class PlantParser extends EmbeddedActionsParser {
       {
         ALT: () => {
           const folded = this.CONSUME(T.PlainNumberMatrix);
-          return this.ACTION(() => this.foldedMatrices.get(folded) as MatrixExpr);
+          return this.ACTION(() => plainMatrixNode(folded.payload as PlainMatrixScan, folded.startOffset, this.lines));
         },
       },
     ]);
@@ -877,7 +875,6 @@ export interface ParseOptions {
   foldMinEntries?: number;
 }
 
-let foldMinEntries = FOLD_MIN_ENTRIES;
 
 function getParser(): PlantParser {
   sharedParser ??= new PlantParser();
@@ -921,7 +918,7 @@ interface OpenBlock {
  * `syntax/internal-error`.
  */
 export function parsePlantText(text: string, options: ParseOptions = {}): ParseResult {
-  foldMinEntries = options.foldMinEntries ?? FOLD_MIN_ENTRIES;
+  setFoldThreshold(options.foldMinEntries ?? FOLD_MIN_ENTRIES);
   const source = typeof text === 'string' ? text : String(text ?? '');
   const lines = new LineIndex(source);
   const diagnostics: SyntaxDiagnostic[] = [];
@@ -956,7 +953,7 @@ function parseInto(
     diagnostics.push({ severity: 'error', code, message, range: lines.range(start, end) });
   };
 
-  const lexed = T.plantLexer.tokenize(source);
+  const lexed = T.parseLexer.tokenize(source);
   for (const error of lexed.errors) {
     const bad = source.slice(error.offset, error.offset + error.length);
     const shown = bad.length > 12 ? `${bad.slice(0, 12)}…` : bad;
@@ -1126,8 +1123,7 @@ function parseStatement(
   parser.diagnostics = [];
   parser.blamed = new Set();
   parser.statementEnd = statement.end;
-  parser.foldedMatrices.clear();
-  parser.input = foldPlainNumberMatrices(statement.tokens, parser.lines, parser.foldedMatrices, foldMinEntries);
+  parser.input = statement.tokens;
   const item = kind === 'plant' ? parser.plantItem() : parser.controllerItem();
   for (const error of parser.errors) {
     const token = error.token;
@@ -1245,6 +1241,7 @@ function exceedsDepth(root: Expr): boolean {
         for (const arg of node.args) stack.push([arg, depth + 1]);
         break;
       case 'matrix':
+        if (node.plain) break; // numbers only: depth 2 at most
         for (const row of node.rows) {
           for (const entry of row.entries) {
             if (entry.kind !== 'number' && entry.kind !== 'name') stack.push([entry, depth + 1]);

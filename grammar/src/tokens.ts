@@ -1,6 +1,7 @@
 // The one token list of the plant language. The lexer, the parser and the TextMate grammar
 // are all derived from it, so highlighting cannot drift from what the parser accepts.
-import { createToken, Lexer, type TokenType } from 'chevrotain';
+import { createToken, Lexer, type CustomPatternMatcherReturn, type TokenType } from 'chevrotain';
+import { foldThresholdNow, scanPlainMatrix } from './plainMatrix';
 
 /** Letters allowed in names: ASCII, Latin-1/Latin Extended, Greek (engineers like θ, ω). */
 const NAME_START = 'A-Za-z_\\u00C0-\\u00D6\\u00D8-\\u00F6\\u00F8-\\u024F\\u0370-\\u03FF';
@@ -132,11 +133,24 @@ export const RCurly = createToken({ name: 'RCurly', pattern: /\}/ });
 export const Percent = createToken({ name: 'Percent', pattern: /%/ });
 
 /**
- * Never produced by the lexer: the parser folds a large all-number matrix (`[1, 0; -2.5, 3]`)
- * into one such token before parsing, so 200×200 matrices do not run the expression rules
- * 40,000 times. The folded tree is identical to what the expression rules would build.
+ * A whole large all-number matrix (`[1, 0; -2.5, 3]`, 64 entries or more) as one token, read
+ * at the character level so 200×200 matrices neither lex 100,000 tokens nor run the
+ * expression rules 40,000 times. Only the parse lexer has it; its payload is the scan.
  */
-export const PlainNumberMatrix = createToken({ name: 'PlainNumberMatrix', pattern: Lexer.NA });
+export const PlainNumberMatrix = createToken({
+  name: 'PlainNumberMatrix',
+  pattern: {
+    exec: (text: string, offset: number): CustomPatternMatcherReturn | null => {
+      const scan = scanPlainMatrix(text, offset, foldThresholdNow());
+      if (!scan) return null;
+      const match = [text.slice(offset, scan.end)] as CustomPatternMatcherReturn;
+      match.payload = scan;
+      return match;
+    },
+  },
+  start_chars_hint: ['['],
+  line_breaks: true,
+});
 
 export const Comment = createToken({ name: 'Comment', pattern: /#[^\r\n]*/, group: 'comments' });
 export const Newline = createToken({
@@ -177,7 +191,6 @@ export const allTokens: TokenType[] = [
   LCurly,
   RCurly,
   Percent,
-  PlainNumberMatrix,
 ];
 
 /**
@@ -218,8 +231,17 @@ export const NAME_SCOPES = {
   declarationName: 'entity.name.type.plant',
 } as const;
 
-/** Single shared lexer instance (construction analyses all patterns once). */
+/** Single shared lexer instance (construction analyses all patterns once): one token per lexeme. */
 export const plantLexer = new Lexer(allTokens, {
+  positionTracking: 'onlyOffset',
+  ensureOptimizations: true,
+});
+
+/** The parser's vocabulary: every lexeme token plus the folded matrix. */
+export const parserTokens: TokenType[] = [...allTokens, PlainNumberMatrix];
+
+/** The parser's lexer: as `plantLexer`, but a large all-number matrix is one token. */
+export const parseLexer = new Lexer([PlainNumberMatrix, ...allTokens], {
   positionTracking: 'onlyOffset',
   ensureOptimizations: true,
 });

@@ -1,7 +1,11 @@
-// Large all-number matrices skip the expression rules (see grammar/src/plainMatrix.ts); the tree
-// must be exactly what the grammar builds, and anything unusual must fall back to the grammar.
+// Large all-number matrices are read in one piece (see grammar/src/plainMatrix.ts); the tree
+// must be exactly what the grammar builds, the values exactly what JavaScript's own
+// string-to-number conversion gives, and anything unusual must fall back to the grammar.
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+import type { MatrixAssign, PlantDecl } from '../../grammar/src/ast';
 import { parsePlantText } from '../../grammar/src/parser';
+import { checkDocument } from '../../server/src/model/check';
 
 function matrixText(rows: number, columns: number, entry: (i: number, j: number) => string): string {
   const lines: string[] = [];
@@ -23,6 +27,40 @@ describe('folding of plain-number matrices', () => {
       expect(folded).toEqual(grammarOnly);
     });
   }
+
+  it('gives the same checked model and model diagnostics with and without folding', () => {
+    // Ragged rows and an extra row: the shape diagnostics must point at the same entries.
+    const ragged = `plant shaped {\n  states ${Array.from({ length: 9 }, (_, i) => `x${i + 1}`).join(', ')}\n  inputs u\n  outputs y\n` +
+      `  A = ${matrixText(10, 9, (i, j) => (i === 3 && j === 8 ? '1, 2, 3' : String(i - j)))}\n` +
+      `  B = ${matrixText(9, 1, () => '1')}\n  C = ${matrixText(1, 9, () => '-0')}\n}\n`;
+    for (const text of [...documents, ragged]) {
+      const folded = checkDocument(parsePlantText(text, { foldMinEntries: 1 }));
+      const grammarOnly = checkDocument(parsePlantText(text, { foldMinEntries: Number.POSITIVE_INFINITY }));
+      expect(JSON.parse(JSON.stringify(folded))).toEqual(JSON.parse(JSON.stringify(grammarOnly)));
+    }
+    const codes = checkDocument(parsePlantText(ragged)).diagnostics.map((d) => d.code);
+    expect(codes.length).toBeGreaterThan(0);
+  });
+
+  it('reads every number literal as JavaScript does (reference: ECMAScript Number(string))', () => {
+    const digits = fc.string({ unit: fc.constantFrom(...'0123456789'), minLength: 1, maxLength: 22 });
+    const literal = fc
+      .tuple(digits, fc.option(fc.string({ unit: fc.constantFrom(...'0123456789'), maxLength: 22 })), fc.option(fc.tuple(fc.constantFrom('e', 'E'), fc.constantFrom('', '+', '-'), fc.integer({ min: 0, max: 400 }))))
+      .map(([whole, fraction, exponent]) => `${whole}${fraction === null ? '' : `.${fraction}`}${exponent === null ? '' : `${exponent[0]}${exponent[1]}${exponent[2]}`}`);
+    fc.assert(
+      fc.property(fc.array(fc.tuple(fc.constantFrom('', '-', '+', '- '), literal), { minLength: 64, maxLength: 100 }), (entries) => {
+        const text = `plant p {\n  A = [${entries.map(([sign, value]) => sign + value).join(', ')}]\n}\n`;
+        const plant = parsePlantText(text).document.declarations[0] as PlantDecl;
+        const matrix = (plant.items[0] as MatrixAssign).value;
+        if (matrix.kind !== 'matrix' || !matrix.plain) throw new Error('expected a folded matrix');
+        entries.forEach(([sign, value], k) => {
+          const expected = sign.startsWith('-') ? -Number(value) : Number(value);
+          expect(Object.is(matrix.plain!.values[k], expected)).toBe(true);
+        });
+      }),
+      { numRuns: 300 },
+    );
+  });
 
   it('reports errors in non-plain large matrices', () => {
     expect(parsePlantText(documents[2]).diagnostics.map((d) => d.code)).toEqual([

@@ -2,7 +2,8 @@
 // entry came from. A matrix literal is evaluated entry by entry (an error in one entry does
 // not hide the others); any other expression (diag(…), identity(n), a matrix parameter,
 // 2*identity(2)) is evaluated whole and all its entries point at it.
-import type { Expr, Range } from '../../../grammar/src/ast';
+import type { Expr, MatrixExpr, PlainMatrixEntries, Range } from '../../../grammar/src/ast';
+import { defineLazyProperty } from '../../../grammar/src/lazyProperty';
 import * as Cx from './complex';
 import { notReal, shapeMismatch } from './diagnostics/index';
 import { asScalar, evaluateValue, shapeText, type ValueScope } from './evaluate';
@@ -18,6 +19,7 @@ export interface SourcedMatrix {
 }
 
 export function evaluateSourcedMatrix(expr: Expr, scope: ValueScope, out: Diagnostic[]): SourcedMatrix | null {
+  if (expr.kind === 'matrix' && expr.plain) return plainSourcedMatrix(expr, expr.plain);
   if (expr.kind === 'matrix') {
     const rows = expr.rows.filter((row) => row.entries.length > 0);
     const values = rows.map((row) => row.entries.map((entry) => realEntry(entry, scope, out)));
@@ -57,6 +59,25 @@ export function evaluateSourcedMatrix(expr: Expr, scope: ValueScope, out: Diagno
       entryRanges: rows.map((row) => row.map(() => expr.range)),
     },
   };
+}
+
+/**
+ * An all-number literal read in one piece: values straight from the scan; row and entry
+ * ranges (which build the matrix's syntax nodes) only when a diagnostic asks for them.
+ */
+function plainSourcedMatrix(expr: MatrixExpr, plain: PlainMatrixEntries): SourcedMatrix {
+  const rows: number[][] = [];
+  let index = 0;
+  for (const rowLength of plain.rowLengths) {
+    const row = new Array<number>(rowLength);
+    for (let k = 0; k < rowLength; k++) row[k] = plain.values[index++]!;
+    rows.push(row);
+  }
+  const source = { range: expr.range } as MatrixSource;
+  const nonEmptyRows = () => expr.rows.filter((row) => row.entries.length > 0);
+  defineLazyProperty(source, 'rowRanges', () => nonEmptyRows().map((row) => row.range));
+  defineLazyProperty(source, 'entryRanges', () => nonEmptyRows().map((row) => row.entries.map((entry) => entry.range)));
+  return { rows, literal: true, source };
 }
 
 /** One real number from an entry expression, or null (reported). */
