@@ -132,13 +132,14 @@ async function measureEdits(n, edits) {
   const full = [];
   for (let i = 0; i < edits; i++) {
     const version = i + 2;
-    const value = (0.5 + ((i % 10) + 1) / 100).toFixed(2); // 0.51 … 0.60: a real change each time
+    // 0.5001, 0.5002, …: every edit is a text the server has not seen (nothing can be reused).
+    const value = (0.5 + (i + 1) / 10000).toFixed(4);
     const fastEvent = session.waitFor((e) => e.kind === 'diagnostics' && e.uri === uri && e.version === version);
     const fullEvent = session.waitFor((e) => e.kind === 'analysed' && e.uri === uri && e.version === version);
     const start = performance.now();
     await session.connection.sendNotification('textDocument/didChange', {
       textDocument: { uri, version },
-      contentChanges: [{ range: { start: { line, character: 12 }, end: { line, character: 12 + (i === 0 ? 3 : 4) } }, text: value }],
+      contentChanges: [{ range: { start: { line, character: 12 }, end: { line, character: 12 + (i === 0 ? 3 : 6) } }, text: value }],
     });
     fast.push((await fastEvent).time - start);
     full.push((await fullEvent).time - start);
@@ -261,7 +262,8 @@ if (args.includes('--soak')) {
 } else {
   const edits = option('--edits', 200);
   const rows = [];
-  for (const n of [10, 100]) {
+  const sizes = args.includes('--sizes') ? String(args[args.indexOf('--sizes') + 1]).split(',').map(Number) : [10, 100];
+  for (const n of sizes) {
     const { fast, full } = await measureEdits(n, edits);
     rows.push([`${n} states`, ms(percentile(fast, 50)), ms(percentile(fast, 95)), ms(percentile(full, 50)), ms(percentile(full, 95))]);
   }

@@ -43,34 +43,41 @@ export function transferEvaluator(A: Rows, B: Rows, C: Rows, D: Rows): TransferE
     ct[i * n + j] = sum;
   }
   const pivotFloor = n * Number.EPSILON * Math.max(scale, Number.MIN_VALUE);
+  // Work arrays reused by every evaluation (the evaluator is called hundreds of times).
+  const mr = new Float64Array(n * n);
+  const mi = new Float64Array(n * n);
+  const xr = new Float64Array(n * m);
+  const xi = new Float64Array(n * m);
+  const swapRows = (values: Float64Array, width: number, first: number, second: number, from: number): void => {
+    for (let j = from; j < width; j++) {
+      const held = values[first * width + j];
+      values[first * width + j] = values[second * width + j];
+      values[second * width + j] = held;
+    }
+  };
   return (point: Complex) => {
-    // M = λI − H (upper Hessenberg), right-hand sides X = B̃.
-    const mr = new Float64Array(n * n);
-    const mi = new Float64Array(n * n);
-    for (let k = 0; k < n * n; k++) mr[k] = -h[k];
+    // M = λI − H (upper Hessenberg: only the entries from the subdiagonal on are touched), X = B̃.
     for (let i = 0; i < n; i++) {
+      const from = i === 0 ? 0 : i - 1;
+      for (let j = from; j < n; j++) {
+        mr[i * n + j] = -h[i * n + j];
+        mi[i * n + j] = 0;
+      }
       mr[i * n + i] += point.re;
       mi[i * n + i] = point.im;
     }
-    const xr = bt.slice();
-    const xi = new Float64Array(n * m);
+    xr.set(bt);
+    xi.fill(0);
     let singular = false;
     for (let k = 0; k < n - 1; k++) {
       const top = k * n + k;
       const below = (k + 1) * n + k;
-      if (Math.hypot(mr[below], mi[below]) > Math.hypot(mr[top], mi[top])) {
-        for (let j = k; j < n; j++) {
-          const a = k * n + j;
-          const b = (k + 1) * n + j;
-          [mr[a], mr[b]] = [mr[b], mr[a]];
-          [mi[a], mi[b]] = [mi[b], mi[a]];
-        }
-        for (let j = 0; j < m; j++) {
-          const a = k * m + j;
-          const b = (k + 1) * m + j;
-          [xr[a], xr[b]] = [xr[b], xr[a]];
-          [xi[a], xi[b]] = [xi[b], xi[a]];
-        }
+      // Partial pivoting between the two candidate rows (moduli compared squared: no hypot).
+      if (mr[below] * mr[below] + mi[below] * mi[below] > mr[top] * mr[top] + mi[top] * mi[top]) {
+        swapRows(mr, n, k, k + 1, k);
+        swapRows(mi, n, k, k + 1, k);
+        swapRows(xr, m, k, k + 1, 0);
+        swapRows(xi, m, k, k + 1, 0);
       }
       const pr = mr[top];
       const pi = mi[top];

@@ -18,7 +18,7 @@
 //   peak sensitivity Ms = max |1/(1 + L_i)|.
 // Grid: logarithmic, 60 points per decade over two decades beyond the smallest and largest pole
 // magnitudes of the loop and closed loop, extra points around lightly damped poles; each crossing
-// is refined by bisection on log ω (at most 60 steps), the sensitivity peak by golden-section
+// is refined by the Illinois method on log ω (at most 60 steps), the sensitivity peak by golden-section
 // search (at most 60 steps).
 import type { Complex, ComplexRows, Rows } from '../numeric/types';
 import { eigenvalues, solveComplexLinear, solveLinear } from '../numeric';
@@ -147,19 +147,33 @@ function frequencyGrid(loop: StateSpace, closedPoles: Complex[], domain: 'contin
 
 const REFINE_STEPS = 60;
 
-function bisectLog(f: (omega: number) => number, low: number, high: number): number {
-  let fLow = f(low);
-  for (let step = 0; step < REFINE_STEPS && high - low > 4 * Number.EPSILON * high; step++) {
-    const middle = Math.sqrt(low * high);
-    const fMiddle = f(middle);
-    if (Math.sign(fMiddle) === Math.sign(fLow)) {
-      low = middle;
-      fLow = fMiddle;
+/**
+ * The ω in [low, high] where f changes sign, by the Illinois variant of regula falsi on log ω
+ * (Dowell & Jarratt, BIT 11, 1971): superlinear, and the bracket is kept, so a crossing found on
+ * the grid is never lost. About ten evaluations instead of the sixty of bisection.
+ */
+function refineCrossing(f: (omega: number) => number, low: number, high: number): number {
+  let a = Math.log(low);
+  let b = Math.log(high);
+  let fa = f(low);
+  let fb = f(high);
+  if (fa === 0) return low;
+  if (fb === 0) return high;
+  for (let step = 0; step < REFINE_STEPS && Math.abs(b - a) > 4 * Number.EPSILON * Math.max(1, Math.abs(a), Math.abs(b)); step++) {
+    let c = b - (fb * (b - a)) / (fb - fa);
+    if (!(c > Math.min(a, b) && c < Math.max(a, b))) c = 0.5 * (a + b);
+    const fc = f(Math.exp(c));
+    if (fc === 0 || Number.isNaN(fc)) return Math.exp(c);
+    if (Math.sign(fc) !== Math.sign(fb)) {
+      a = b;
+      fa = fb;
     } else {
-      high = middle;
+      fa /= 2;
     }
+    b = c;
+    fb = fc;
   }
-  return Math.sqrt(low * high);
+  return Math.exp(0.5 * (a + b));
 }
 
 function goldenMax(f: (omega: number) => number, low: number, high: number): { omega: number; value: number } {
@@ -214,7 +228,7 @@ export function loopMargins(loop: StateSpace, domain: 'continuous' | 'discrete',
       const a = Math.log(Math.hypot(values[k].re, values[k].im));
       const b = Math.log(Math.hypot(values[k + 1].re, values[k + 1].im));
       if (!(Number.isFinite(a) && Number.isFinite(b)) || Math.sign(a) === Math.sign(b) || a === 0) continue;
-      const omega = bisectLog(logMagnitude, grid[k], grid[k + 1]);
+      const omega = refineCrossing(logMagnitude, grid[k], grid[k + 1]);
       const value = at(omega);
       const phase = (Math.atan2(value.im, value.re) * 180) / Math.PI; // (−180°, 180°]
       // Phase change in either direction that puts L on −1; negative when the loop is unstable.
@@ -242,7 +256,7 @@ export function loopMargins(loop: StateSpace, domain: 'continuous' | 'discrete',
       const a = values[k].im;
       const b = values[k + 1].im;
       if (a === 0 || Math.sign(a) === Math.sign(b) || !Number.isFinite(a) || !Number.isFinite(b)) continue;
-      const omega = bisectLog(imaginary, grid[k], grid[k + 1]);
+      const omega = refineCrossing(imaginary, grid[k], grid[k + 1]);
       consider(at(omega), omega);
     }
     for (let k = 0; k < grid.length; k++) if (values[k].im === 0) consider(values[k], grid[k]);
