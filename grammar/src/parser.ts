@@ -68,6 +68,8 @@ class PlantParser extends EmbeddedActionsParser {
   statementEnd = 0;
   /** Span including the parentheses for parenthesised expressions (the node itself excludes them). */
   outerSpans = new WeakMap<Expr, { start: number; end: number }>();
+  /** Read simple matrix entries without the expression rules (see quickMatrixEntry). */
+  quickEntries = true;
 
   constructor() {
     super(T.parserTokens, { recoveryEnabled: true, maxLookahead: 3 });
@@ -384,6 +386,28 @@ class PlantParser extends EmbeddedActionsParser {
     });
   });
 
+  /**
+   * A matrix entry that is only a (signed) number or name followed by `,`, `;`, a row break or
+   * `]` — most entries of a physical model's matrices (`0`, `-1`, `k`) — read straight from the
+   * tokens: the node is exactly what the expression rules build, without their seven rule calls.
+   * Off when the grammar-only parse is asked for (tests compare the two).
+   */
+  quickMatrixEntry(): Expr | undefined {
+    if (!this.quickEntries) return undefined;
+    const first = this.LA(1);
+    const signed = first.tokenType === T.Minus || first.tokenType === T.Plus;
+    const atom = signed ? this.LA(2) : first;
+    const type = atom.tokenType;
+    if (type !== T.NumberLiteral && type !== T.ImaginaryNumber && type !== T.Identifier) return undefined;
+    const follower = (signed ? this.LA(3) : this.LA(2)).tokenType;
+    if (follower !== T.Comma && follower !== T.Semicolon && follower !== T.Newline && follower !== T.RSquare) return undefined;
+    const sign = signed ? this.consume(7, first.tokenType) : undefined;
+    this.consume(8, type);
+    const operand: Expr =
+      type === T.Identifier ? { kind: 'name', name: atom.image, ...this.tokenSpan(atom) } : this.numberNode(atom);
+    return sign ? this.unaryChain([sign], operand) : operand;
+  }
+
   /** `[a, b; c, d]`: `;` or newline between rows (repeated breaks count once), `,` between entries. */
   matrix = this.RULE('matrix', (): MatrixExpr => {
     const open = this.CONSUME(T.LSquare);
@@ -447,6 +471,11 @@ class PlantParser extends EmbeddedActionsParser {
       },
       {
         ALT: () => {
+          const quick = recording ? undefined : this.quickMatrixEntry();
+          if (quick) {
+            addEntry(quick);
+            return;
+          }
           const entry = this.SUBRULE(this.expression);
           if (!recording) addEntry(entry);
         },
@@ -871,7 +900,10 @@ class PlantParser extends EmbeddedActionsParser {
 let sharedParser: PlantParser | undefined;
 
 export interface ParseOptions {
-  /** Entry count from which all-number matrices skip the grammar (tests set Infinity / 1). */
+  /**
+   * Entry count from which all-number matrices skip the grammar (tests set Infinity / 1).
+   * Infinity is the grammar-only parse: simple entries then also go through the expression rules.
+   */
   foldMinEntries?: number;
 }
 
@@ -918,7 +950,9 @@ interface OpenBlock {
  * `syntax/internal-error`.
  */
 export function parsePlantText(text: string, options: ParseOptions = {}): ParseResult {
-  setFoldThreshold(options.foldMinEntries ?? FOLD_MIN_ENTRIES);
+  const foldThreshold = options.foldMinEntries ?? FOLD_MIN_ENTRIES;
+  setFoldThreshold(foldThreshold);
+  getParser().quickEntries = Number.isFinite(foldThreshold);
   const source = typeof text === 'string' ? text : String(text ?? '');
   const lines = new LineIndex(source);
   const diagnostics: SyntaxDiagnostic[] = [];
