@@ -234,7 +234,7 @@ function downsampleIndices(count: number, maximum: number): number[] {
 }
 
 interface RawRun {
-  z: number[][]; // per time
+  z: ArrayLike<number>[]; // per time
   u: number[][];
   y: number[][];
   divergedAt: number | null;
@@ -298,13 +298,25 @@ export function simulateStepResponses(problem: StepResponseProblem): StepRespons
   // Exact transition for the linear run.
   const transition = domain === 'continuous' ? matrixExponentialIntegral(loop.Acl, loop.Bcl, h) : { Phi: loop.Acl, Gamma: loop.Bcl };
 
+  // The recursion on one flat row-major Φ and one flat state record (views per time step):
+  // n² multiply-adds per step with no per-step allocation, the hot loop of the whole analysis.
+  const transitionFlat = new Float64Array(size * size);
+  transition.Phi.forEach((row, i) => transitionFlat.set(row, i * size));
   const runLinear = (r: number[]): RawRun => {
-    const z: number[][] = [new Array<number>(size).fill(0)];
+    const count = grid.count;
     const forcing = matVec(transition.Gamma, r);
-    for (let k = 1; k < grid.count; k++) {
-      const next = matVec(transition.Phi, z[k - 1]).map((v, i) => v + forcing[i]);
-      z.push(next);
+    const states = new Float64Array(count * size);
+    for (let k = 1; k < count; k++) {
+      const previous = (k - 1) * size;
+      const next = k * size;
+      for (let i = 0; i < size; i++) {
+        const row = i * size;
+        let sum = forcing[i];
+        for (let j = 0; j < size; j++) sum += transitionFlat[row + j] * states[previous + j];
+        states[next + i] = sum;
+      }
     }
+    const z = Array.from({ length: count }, (_, k) => states.subarray(k * size, (k + 1) * size));
     const u = z.map((state) => commandOf(state, r));
     const y = z.map((state, k) => outputOf(state, u[k]));
     return { z, u, y, divergedAt: null, time };
