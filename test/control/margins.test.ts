@@ -2,6 +2,9 @@ import { describe, expect, it } from 'vitest';
 import { loopMargins, outputFeedbackLoop, stateFeedbackLoop } from '../../server/src/control/margins';
 import { bandwidth, frequencyResponse, logarithmicGrid } from '../../server/src/control/frequencyResponse';
 import { poleSetDistance } from './controlTestHelpers';
+import { combinedClosedLoop, observerController } from '../../server/src/control/combinedClosedLoop';
+import { eigenvaluesOf, multiplyRows } from '../../server/src/control/controlLinearAlgebra';
+import { solveLinear } from '../../server/src/numeric';
 
 // L(s) = 1/(s(s+1)) realised as K(sI − A)⁻¹B with A = [[0, 1], [0, −1]], B = [0; 1], K = [1 0].
 const integratorLag = stateFeedbackLoop([[0, 1], [0, -1]], [[0], [1]], [[1, 0]]);
@@ -123,6 +126,58 @@ describe('margins with an observer in the loop', () => {
     const margins = loopMargins(open, 'continuous');
     expect(margins.closedLoopStable).toBe(true);
     expect(margins.perInput[0].phaseMarginDeg).not.toBeNull();
+  });
+});
+
+describe('margins with an observer and integral action in the loop', () => {
+  // Separation principle (any textbook on state feedback, e.g. Franklin, Powell & Workman,
+  // "Digital Control of Dynamic Systems", ch. 8): plant + estimator + integrators closed through
+  // the controller have the poles of A_aug − B_aug·[Kx Ki] together with the estimator's error
+  // poles (A − LC, or Φ − ΦMC for the current estimator) — for any gains, so arbitrary ones here.
+  const plant = { A: [[0, 1, 0], [-2, -0.3, 1], [0, 0, -4]], B: [[0, 0], [0, 1], [3, 0.5]], C: [[1, 0, 0], [0, 0, 1]], D: [[0, 0], [0.2, 0]] };
+  const Kx = [[1.5, 0.4, 0.2], [-0.3, 2.1, 0.7]];
+  const Ki = [[-0.8], [0.35]];
+  const L = [[2, 0.1], [5, -0.4], [0.3, 3]];
+  const integrated = [0];
+  const closedMatrix = (loop: { A: number[][]; B: number[][]; C: number[][]; D: number[][] }): number[][] => {
+    // v = −L v with feedthrough: A_L − B_L (I + D_L)⁻¹ C_L.
+    const m = loop.D.length;
+    const IplusD = loop.D.map((row, i) => row.map((v, j) => v + (i === j ? 1 : 0)));
+    const gain = solveLinear(IplusD, loop.C).X;
+    return loop.A.map((row, i) => row.map((v, j) => v - Array.from({ length: m }, (_, k) => loop.B[i][k] * gain[k][j]).reduce((a, b) => a + b, 0)));
+  };
+  const augmented = (T: number | null) => {
+    // ξ' = −y_I (continuous) or ξ[k+1] = ξ[k] − T·y_I[k], y_I = C_I x + D_I u.
+    const step = T ?? 1;
+    const A = [...plant.A.map((row) => [...row, 0]), [...plant.C[0].map((v) => -step * v), T === null ? 0 : 1]];
+    const B = [...plant.B, plant.D[0].map((v) => -step * v)];
+    const K = Kx.map((row, i) => [...row, ...Ki[i]]);
+    return A.map((row, i) => row.map((v, j) => v - B[i].reduce((sum, b, k) => sum + b * K[k][j], 0)));
+  };
+  const LC = multiplyRows(L, plant.C);
+
+  it('continuous predictor estimator: loop poles = eig(A_aug − B_aug K) ∪ eig(A − LC)', () => {
+    const controller = observerController(plant, Kx, L, 'continuous', 'predictor', { Ki, outputs: integrated });
+    const loop = outputFeedbackLoop(plant, controller);
+    const expected = [...eigenvaluesOf(augmented(null)), ...eigenvaluesOf(plant.A.map((row, i) => row.map((v, j) => v - LC[i][j])))];
+    expect(poleSetDistance(eigenvaluesOf(closedMatrix(loop)), expected)).toBeLessThan(1e-9 * 10);
+  });
+
+  it('discrete current estimator: loop poles = eig(Φ_aug − Γ_aug K) ∪ eig(Φ − ΦMC)', () => {
+    const T = 0.05;
+    const controller = observerController(plant, Kx, L, 'discrete', 'current', { Ki, outputs: integrated }, T);
+    const loop = outputFeedbackLoop(plant, controller);
+    const PhiMC = multiplyRows(plant.A, LC);
+    const expected = [...eigenvaluesOf(augmented(T)), ...eigenvaluesOf(plant.A.map((row, i) => row.map((v, j) => v - PhiMC[i][j])))];
+    expect(poleSetDistance(eigenvaluesOf(closedMatrix(loop)), expected)).toBeLessThan(1e-9 * 10);
+  });
+
+  it('without integrators equals the controller of the combined closed loop', () => {
+    for (const [domain, form] of [['continuous', 'predictor'], ['discrete', 'predictor'], ['discrete', 'current']] as const) {
+      const combined = combinedClosedLoop(plant.A, plant.B, plant.C, plant.D, Kx, L, domain, form);
+      const closed = eigenvaluesOf(closedMatrix(outputFeedbackLoop(plant, combined.controller)));
+      expect(poleSetDistance(closed, combined.combinedPoles)).toBeLessThan(1e-9 * 10);
+    }
   });
 });
 

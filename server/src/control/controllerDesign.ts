@@ -7,7 +7,7 @@ import type { CheckedController, CheckedPlant, Complex, Diagnostic, Range, Rows 
 import { blockDiagonal, hstack, identity, multiply, scale, vstack, zeros } from '../numeric';
 import { eigenvaluesOf } from './controlLinearAlgebra';
 import type { StateSpace } from './combinedClosedLoop';
-import { combinedClosedLoop } from './combinedClosedLoop';
+import { observerController } from './combinedClosedLoop';
 import { augmentComputationDelay } from './delayAugment';
 import { designDiagnostics as findings } from './diagnostics/designFindings';
 import { discretiseZeroOrderHold, mapPolesToContinuous, mapPolesToDiscrete, sampledCostWeights } from './discretise';
@@ -604,12 +604,18 @@ function designEstimator(
 
 /** The loop as implemented, broken at the plant input (state feedback, or controller + observer). */
 function implementedLoop(model: DesignModel, K: Rows, augmented: { A: Rows; B: Rows }, observer: EstimatorInfo | null, integrated: number[]): StateSpace {
-  if (!observer || integrated.length) {
+  if (!observer) {
     // Full-state feedback (integrators are part of the fed-back state): L = K (λI − A_aug)⁻¹ B_aug.
     return stateFeedbackLoop(augmented.A, augmented.B, K);
   }
-  const combined = combinedClosedLoop(model.A, model.B, model.C, model.D, K, observer.L, model.domain, observer.form);
-  return outputFeedbackLoop({ A: model.A, B: model.B, C: model.C, D: model.D }, combined.controller);
+  // Observer-based: the controller from the measured outputs (with its integrators) in series
+  // with the plant, so the margins are those of the loop as built, not of full-state feedback.
+  const plantModel = { A: model.A, B: model.B, C: model.C, D: model.D };
+  const n = model.A.length;
+  const { left: Kx, right: Ki } = splitColumns(K, n);
+  const integrators = integrated.length ? { Ki, outputs: integrated } : undefined;
+  const controller = observerController(plantModel, Kx, observer.L, model.domain, observer.form, integrators, model.T ?? 1);
+  return outputFeedbackLoop(plantModel, controller);
 }
 
 /** Open-loop frequency response of the first input's loop (the others open), for the plots. */
