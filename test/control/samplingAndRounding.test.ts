@@ -3,6 +3,24 @@ import { adviseSamplePeriod, pathologicalEigenvaluePairs } from '../../server/sr
 import { float32ClosedLoopCheck } from '../../server/src/control/float32Check';
 import { discretiseZeroOrderHold } from '../../server/src/control/discretise';
 import { analyzeControllability } from '../../server/src/control/structure';
+import { analyze } from '../../server/src/analyze';
+
+describe('bandwidth rule on a designed sampled loop', () => {
+  it('finds the −3 dB bandwidth of a first-order sampled loop from its closed form', () => {
+    // Plant x' = −x + u, y = x; closed-loop pole s = −5 sampled at T = 20 ms: z-pole a = e^{−5T}.
+    // With the prescaler the loop is y/r = (1 − a)/(z − a); |H(e^{jωT})| = (1 − a)/√2 where
+    // 1 − 2a·cos ωT + a² = 2(1 − a)², i.e. ωb = acos((1 + a² − 2(1 − a)²)/(2a))/T (closed form).
+    const T = 0.02;
+    const a = Math.exp(-5 * T);
+    const bandwidth = Math.acos((1 + a * a - 2 * (1 - a) ** 2) / (2 * a)) / T;
+    const text = 'plant lag {\n  states x\n  inputs u\n  outputs y\n  A = [-1]\n  B = [1]\n  C = [1]\n}\n' +
+      'controller hold for lag {\n  poles = [-5]\n  sample 20 ms\n  track y\n}\n';
+    const sampling = analyze(text).controllers[0].details.sampling as { bandwidthPeriodRange: [number, number] | null };
+    expect(sampling.bandwidthPeriodRange).not.toBeNull();
+    expect(sampling.bandwidthPeriodRange![0]).toBeCloseTo((2 * Math.PI) / (30 * bandwidth), 10);
+    expect(sampling.bandwidthPeriodRange![1]).toBeCloseTo((2 * Math.PI) / (10 * bandwidth), 10);
+  });
+});
 
 describe('sample-period advice', () => {
   // Undamped oscillator at ω0 = 10 rad/s (a hoist rope's sway, say): eigenvalues ±10j.

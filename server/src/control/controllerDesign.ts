@@ -12,7 +12,7 @@ import { augmentComputationDelay } from './delayAugment';
 import { designDiagnostics as findings } from './diagnostics/designFindings';
 import { discretiseZeroOrderHold, mapPolesToContinuous, mapPolesToDiscrete, sampledCostWeights } from './discretise';
 import { float32ClosedLoopCheck } from './float32Check';
-import { frequencyResponse, logarithmicGrid } from './frequencyResponse';
+import { bandwidth, frequencyResponse, logarithmicGrid } from './frequencyResponse';
 import { analyzeFragility, type PlantMatrices } from './fragility';
 import { disturbanceRejection } from './disturbanceRejection';
 import { integralActionFeasibility } from './integralAction';
@@ -26,7 +26,7 @@ import { adviseSamplePeriod } from './samplingAdvice';
 import { setpointGains, type SetpointResult } from './setpoint';
 import type { AnalysisSettings } from './settings';
 import { checkSpec, polesFromSpec } from './specToPoles';
-import { simulateStepResponses, type StepResponseProblem } from './stepResponse';
+import { referenceClosedLoop, simulateStepResponses, type StepResponseProblem } from './stepResponse';
 import { measuresAllStates } from './structure';
 import { singularValuesOf } from './controlLinearAlgebra';
 
@@ -375,6 +375,8 @@ export function designController(
     return limit ? [limit.low, limit.high] : null;
   });
   const stepped = tracked.length ? tracked : integrated;
+  // The closed loop from the first set-point to its output (for the bandwidth rule on T).
+  let referenceLoop: { model: StateSpace; output: number } | null = null;
   if (stepped.length && setpoint?.feasibility !== 'zero-at-dc') {
     const stepSizes = stepped.map((output) => {
       const line = controller.steps.find((s) => s.output === output);
@@ -399,6 +401,7 @@ export function designController(
           : undefined,
       points: settings.simulationPoints,
     };
+    referenceLoop = { model: referenceClosedLoop(problem), output: stepped[0] };
     const { reports, raw } = stepReport(plant, problem, limits, y0);
     report.step = reports;
     report.details.simulation = { methods: raw.methods, duration: raw.duration, step: raw.step, truncated: raw.truncated };
@@ -437,8 +440,10 @@ export function designController(
           .filter((z) => Math.hypot(z.re, z.im) > 0),
         T,
       );
+    const closedLoopBandwidth = referenceLoop ? referenceBandwidth(referenceLoop, T) : null;
     const advice = adviseSamplePeriod(T, continuousPoles, eigenvaluesOf(plant.A), {
       samplesPerTimeConstant: settings.samplesPerTimeConstant,
+      ...(closedLoopBandwidth !== null ? { closedLoopBandwidth } : {}),
     });
     report.details.sampling = advice;
     out.push(...findings.samplingFindings(controller, advice));
@@ -603,6 +608,19 @@ function designEstimator(
 }
 
 /** The loop as implemented, broken at the plant input (state feedback, or controller + observer). */
+/**
+ * −3 dB bandwidth (rad/s) of the sampled closed loop from the first set-point to its output,
+ * searched up to π/T; null when the loop is unstable or the response does not fall 3 dB there.
+ */
+function referenceBandwidth(reference: { model: StateSpace; output: number }, T: number): number | null {
+  const { A, B, C, D } = reference.model;
+  if (!eigenvaluesOf(A).every((z) => Math.hypot(z.re, z.im) < 1)) return null;
+  const nyquist = Math.PI / T;
+  const omegas = logarithmicGrid(nyquist * 1e-6, nyquist, 60);
+  const column = (rows: Rows) => rows.map((row) => [row[0] ?? 0]);
+  return bandwidth(A, column(B), [C[reference.output]], [[D[reference.output]?.[0] ?? 0]], omegas, 'discrete', T);
+}
+
 function implementedLoop(model: DesignModel, K: Rows, augmented: { A: Rows; B: Rows }, observer: EstimatorInfo | null, integrated: number[]): StateSpace {
   if (!observer) {
     // Full-state feedback (integrators are part of the fed-back state): L = K (λI − A_aug)⁻¹ B_aug.

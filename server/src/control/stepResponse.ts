@@ -182,6 +182,30 @@ function buildClosedLoop(problem: StepResponseProblem, T: number): ClosedLoop {
   return { Acl, Bcl, Fz, Fr, n, qi };
 }
 
+/**
+ * The linear closed loop from the set-points to the outputs, as simulated: state z = (x, ξ),
+ * z' = Acl z + Bcl r (discrete: z[k+1]), y = (C_z + D·Fz) z + D·Fr r with C_z = [C, 0].
+ */
+export function referenceClosedLoop(problem: StepResponseProblem): { A: Rows; B: Rows; C: Rows; D: Rows } {
+  const loop = buildClosedLoop(problem, problem.samplePeriod ?? 0);
+  const { C, D } = problem;
+  const m = loop.Fz.length;
+  const outputRow = (i: number, F: Rows, base: (j: number) => number, width: number): number[] =>
+    Array.from({ length: width }, (_, j) => {
+      let sum = base(j);
+      for (let l = 0; l < m; l++) sum += (D[i]?.[l] ?? 0) * F[l][j];
+      return sum;
+    });
+  const size = loop.n + loop.qi;
+  const q = loop.Fr[0]?.length ?? problem.tracked.length;
+  return {
+    A: loop.Acl,
+    B: loop.Bcl,
+    C: C.map((row, i) => outputRow(i, loop.Fz, (j) => (j < loop.n ? row[j] : 0), size)),
+    D: C.map((_, i) => outputRow(i, loop.Fr, () => 0, q)),
+  };
+}
+
 function clip(value: number, limit: InputLimit | null | undefined): number {
   if (!limit) return value;
   return Math.min(limit.high, Math.max(limit.low, value));
