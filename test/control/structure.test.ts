@@ -2,6 +2,42 @@ import { describe, expect, it } from 'vitest';
 import { analyzeControllability, analyzeObservability, controllabilityStaircase, measuresAllStates } from '../../server/src/control/structure';
 import { multiplyRows, transposeRows } from '../../server/src/control/controlLinearAlgebra';
 
+describe('controllability does not depend on the units of the states', () => {
+  // Controllability and the uncontrollable modes are invariant under a state similarity
+  // x = S·x' (Kalman rank condition: rank[B', A'B', …] = rank S⁻¹[B, AB, …]); a diagonal S is a
+  // change of units (metres to micrometres, newtons to kilonewtons).
+  const rescale = (A: number[][], B: number[][], C: number[][], units: number[]) => ({
+    A: A.map((row, i) => row.map((v, j) => (v * units[j]) / units[i])),
+    B: B.map((row, i) => row.map((v) => v / units[i])),
+    C: C.map((row) => row.map((v, j) => v * units[j])),
+  });
+  // A spring-mass carriage (controllable, observable from position) and the same with a decoupled
+  // third state at s = −3 that neither the input reaches nor the output sees.
+  const carriage = { A: [[0, 1], [-2, -0.5]], B: [[0], [1]], C: [[1, 0]] };
+  const withIdle = { A: [[0, 1, 0], [-2, -0.5, 0], [0, 0, -3]], B: [[0], [1], [0]], C: [[1, 0, 0]] };
+  const unitSets = [[1e-8, 1e8], [1e6, 1e-6], [1e-12, 1], [1, 1e12]];
+
+  it('keeps a controllable, observable pair so in any units', () => {
+    for (const units of unitSets) {
+      const scaled = rescale(carriage.A, carriage.B, carriage.C, units);
+      expect(analyzeControllability(scaled.A, scaled.B, 'continuous').controllable).toBe(true);
+      expect(analyzeObservability(scaled.A, scaled.C, 'continuous').observable).toBe(true);
+    }
+  });
+
+  it('still finds the uncontrollable and unobservable mode s = −3 in any units', () => {
+    for (const units of unitSets.map((pair) => [...pair, 1e4])) {
+      const scaled = rescale(withIdle.A, withIdle.B, withIdle.C, units);
+      const controllability = analyzeControllability(scaled.A, scaled.B, 'continuous');
+      expect(controllability.controllableDimension).toBe(2);
+      expect(controllability.uncontrollableModes[0].value.re).toBeCloseTo(-3, 10);
+      const observability = analyzeObservability(scaled.A, scaled.C, 'continuous');
+      expect(observability.observableDimension).toBe(2);
+      expect(observability.unobservableModes[0].value.re).toBeCloseTo(-3, 10);
+    }
+  });
+});
+
 describe('controllability staircase', () => {
   it('A = 0₂, B = [1; 0] is uncontrollable (two Jordan chains at one eigenvalue)', () => {
     const result = analyzeControllability([[0, 0], [0, 0]], [[1], [0]], 'continuous');

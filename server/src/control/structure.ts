@@ -16,6 +16,7 @@ import {
   zerosRows,
   identityRows,
 } from './controlLinearAlgebra';
+import { balance } from '../numeric';
 
 export type Domain = 'continuous' | 'discrete';
 
@@ -214,12 +215,31 @@ export function pbhSmallestSingularValue(A: Rows, B: Rows, lambda: Complex): num
   return s.length < 2 * n ? 0 : s[2 * n - 1];
 }
 
+/**
+ * The pair in balanced state units: D⁻¹AD, D⁻¹B with D the powers-of-two diagonal that balances
+ * [[A, B], [0, 0]] (Parlett & Reinsch; the input coordinates have zero rows and stay unscaled).
+ * Controllability and the uncontrollable modes do not depend on the states' units, but a rank
+ * tolerance ε·‖[A B]‖ does: without this, a position in µm beside a force in kN can make a
+ * genuine coupling look like rounding noise.
+ */
+export function balancedPair(A: Rows, B: Rows): { A: Rows; B: Rows } {
+  const n = A.length;
+  const m = B[0]?.length ?? 0;
+  if (n === 0 || m === 0) return { A, B };
+  const augmented = [...A.map((row, i) => [...row, ...B[i]]), ...Array.from({ length: m }, () => new Array<number>(n + m).fill(0))];
+  if (!augmented.every((row) => row.every(Number.isFinite))) return { A, B };
+  const { scaled } = balance(augmented);
+  return { A: scaled.slice(0, n).map((row) => row.slice(0, n)), B: scaled.slice(0, n).map((row) => row.slice(n)) };
+}
+
 export function analyzeControllability(
-  A: Rows,
-  B: Rows,
+  unitsA: Rows,
+  unitsB: Rows,
   domain: Domain,
   options: { computeMargin?: boolean } = {},
 ): ControllabilityResult {
+  // Decided, and the distance to uncontrollability measured, in balanced state units.
+  const { A, B } = balancedPair(unitsA, unitsB);
   const n = A.length;
   const width = n === 0 ? 0 : (B[0]?.length ?? 0);
   const Bsafe = width === 0 ? A.map(() => [] as number[]) : B;
