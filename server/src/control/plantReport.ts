@@ -1,7 +1,8 @@
 // Open-loop verdicts on one checked plant: modes, stability, controllability, observability,
 // transfer functions and invariant zeros, with the diagnostics they imply.
 import type { CheckedPlant, Diagnostic, Range, RelatedInformation } from '../model/types';
-import { invariantZeros } from '../numeric';
+import { invariantZeros, snapOriginCluster } from '../numeric';
+import type { Rows } from '../numeric/types';
 import { plantDiagnostics } from './diagnostics/plantFindings';
 import { analyzeModes } from './modes';
 import type { PlantReport } from './reportTypes';
@@ -96,10 +97,17 @@ export function analyzePlant(plant: CheckedPlant, settings: AnalysisSettings): P
       zeros: entry.zeros,
       poles: entry.poles,
     })),
-    invariantZeros: zeros && zeros.normalRank >= 0 ? zeros.zeros : null,
+    invariantZeros: zeros && zeros.normalRank >= 0 ? snapOriginCluster(zeros.zeros, systemNorm(A, B, C, D)).values : null,
   } satisfies Partial<PlantReport>);
 
   const diagnostics: Diagnostic[] = plantDiagnostics(plant, modes, controllability, observability, settings);
   report.diagnostics = diagnostics;
   return report;
+}
+
+/** ‖[A B; C D]‖_F: the scale of the data the zeros are computed from. */
+function systemNorm(A: Rows, B: Rows, C: Rows, D: Rows): number {
+  let sum = 0;
+  for (const matrix of [A, B, C, D]) for (const row of matrix) for (const value of row) sum += value * value;
+  return Math.sqrt(sum);
 }

@@ -40,3 +40,4 @@ export {
 } from './qz';
 export { invariantZeros, type InvariantZerosResult } from './invariantZeros';
 export * from './iterationCount';
+export * from './originCluster';
