@@ -17,7 +17,8 @@
 //     hence stability, is unchanged);
 //   peak sensitivity Ms = max |1/(1 + L_i)|.
 // Grid: logarithmic, 60 points per decade over two decades beyond the smallest and largest pole
-// magnitudes of the loop and closed loop, extra points around lightly damped poles; each crossing
+// magnitudes of the loop and closed loop, extra points around poles too lightly damped for that
+// grid (±3ζ narrower than four grid cells, ζ ≲ 0.05); each crossing
 // is refined by the Illinois method on log ω (at most 60 steps), the sensitivity peak by golden-section
 // search (at most 60 steps).
 import type { Complex, ComplexRows, Rows } from '../numeric/types';
@@ -131,8 +132,11 @@ function frequencyGrid(loop: StateSpace, closedPoles: Complex[], domain: 'contin
   const nyquist = Math.PI / T;
   const high = domain === 'continuous' ? highCorner * 100 : nyquist;
   const grid = logarithmicGrid(Math.min(low, high / 10), high, 60);
+  // Relative spacing of the logarithmic grid: a resonance whose ±3ζ band spans several grid cells
+  // is already resolved by it and needs no extra points.
+  const gridSpacing = Math.pow(10, 1 / 60) - 1;
   for (const corner of corners) {
-    if (corner.damping < 0.3) {
+    if (corner.damping < 0.3 && 3 * corner.damping < 4 * gridSpacing) {
       // ±3ζ around a lightly damped resonance, at least ±1 % for (nearly) undamped modes.
       const width = Math.max(3 * corner.damping, 0.01);
       for (let k = -20; k <= 20; k++) {
@@ -210,7 +214,16 @@ export function loopMargins(loop: StateSpace, domain: 'continuous' | 'discrete',
   const rootEps = Math.sqrt(Number.EPSILON);
 
   const evaluate = transferEvaluator(loop.A, loop.B, loop.C, loop.D);
-  const matrixAt = (omega: number): ComplexRows => evaluate(frequencyPoint(omega, domain, T)).value;
+  // One evaluation of the whole m × m loop per frequency, shared by the m loop-at-a-time channels.
+  const evaluated = new Map<number, ComplexRows>();
+  const matrixAt = (omega: number): ComplexRows => {
+    let value = evaluated.get(omega);
+    if (!value) {
+      value = evaluate(frequencyPoint(omega, domain, T)).value;
+      evaluated.set(omega, value);
+    }
+    return value;
+  };
   const perInput: InputLoopMargins[] = [];
   for (let channel = 0; channel < m; channel++) {
     const at = (omega: number): Complex => loopAtInput(matrixAt(omega), channel);
