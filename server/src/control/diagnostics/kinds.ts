@@ -1,0 +1,37 @@
+// Every diagnostic kind of the control layer, one line each (index.ts builds the registry from this).
+// Each kind lives in its own file; a test fails when a file here defines a kind this list misses.
+export { currentFormFeedthrough } from './current-form-feedthrough';
+export { dcGainUndefinedKind } from './dc-gain-undefined';
+export { defectiveClosedLoopKind } from './defective-closed-loop';
+export { float32Rounding } from './float32-rounding';
+export { fragilePlacementKind } from './fragile-placement';
+export { fragilePrescalerKind } from './fragile-prescaler';
+export { fullStateWithoutObserverKind } from './full-state-without-observer';
+export { illConditionedSetpointKind } from './ill-conditioned-setpoint';
+export { integralInfeasibleKind } from './integral-infeasible';
+export { kalmanNoSolution } from './kalman-no-solution';
+export { lqrNoStabilisingSolution } from './lqr-no-stabilising-solution';
+export { lqrNotDetectableOnAxis } from './lqr-not-detectable-on-axis';
+export { lqrQNotPositiveSemidefinite } from './lqr-q-not-positive-semidefinite';
+export { lqrRNotPositiveDefinite } from './lqr-r-not-positive-definite';
+export { lqrWeightShape } from './lqr-weight-shape';
+export { marginSmall } from './margin-small';
+export { nearlyUncontrollableKind } from './nearly-uncontrollable';
+export { noInputs } from './no-inputs';
+export { observerImpossible } from './observer-impossible';
+export { observerPoleCount } from './observer-pole-count';
+export { observerSlowerThanController } from './observer-slower-than-controller';
+export { observerUnobservableUnstable } from './observer-unobservable-unstable';
+export { openLoopUnstableKind } from './open-loop-unstable';
+export { placementImpossibleKind } from './placement-impossible';
+export { samplingPathological } from './sampling-pathological';
+export { samplingTooLong } from './sampling-too-long';
+export { saturationLimitExceeded } from './saturation-limit-exceeded';
+export { saturationWindup } from './saturation-windup';
+export { specUnusable } from './spec-unusable';
+export { specViolation } from './spec-violation';
+export { uncontrollableKind } from './uncontrollable';
+export { unobservableKind } from './unobservable';
+export { zeroDcGainKind } from './zero-dc-gain';
+export { tooManySetpointsKind } from './too-many-setpoints';
+export { gainOverflowKind } from './gain-overflow';
