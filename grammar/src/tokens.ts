@@ -231,11 +231,17 @@ export const NAME_SCOPES = {
   declarationName: 'entity.name.type.plant',
 } as const;
 
-/** Single shared lexer instance (construction analyses all patterns once): one token per lexeme. */
-export const plantLexer = new Lexer(allTokens, {
-  positionTracking: 'onlyOffset',
-  ensureOptimizations: true,
-});
+let lexemeLexer: Lexer | undefined;
+/**
+ * One token per lexeme, for editor features that need every number and comma (formatting,
+ * semantic tokens). Built on first use: the command-line tool never needs it.
+ */
+export const plantLexer: Pick<Lexer, 'tokenize'> = {
+  tokenize: (text: string) => {
+    lexemeLexer ??= new Lexer(allTokens, { positionTracking: 'onlyOffset', ensureOptimizations: true });
+    return lexemeLexer.tokenize(text);
+  },
+};
 
 /** The parser's vocabulary: every lexeme token plus the folded matrix. */
 export const parserTokens: TokenType[] = [...allTokens, PlainNumberMatrix];
