@@ -51,6 +51,17 @@ describe('hover', () => {
     expect(hover.markdown).toContain('-0.33333'); // −b/J = −0.004/0.012
   });
 
+  it('shows a large all-number matrix (read in one piece by the parser) with its shape and values', () => {
+    const n = 9; // 81 entries: folded into one token (grammar/src/plainMatrix.ts)
+    const rows = Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => (i === j ? '-2.5' : j === i + 1 ? '1' : '0')).join(', '));
+    const states = Array.from({ length: n }, (_, i) => `x${i + 1}`).join(', ');
+    const text = `plant chain {\n  states ${states}\n  inputs u\n  outputs y\n  |A = [${rows.join(';\n       ')}]\n  B = [${Array(n).fill('1').join('; ')}]\n  C = [${Array(n).fill('1').join(', ')}]\n}\n`;
+    const marked = cursor(text);
+    const hover = hoverAt(analyze(marked.text), marked.position)!;
+    expect(hover.markdown).toContain('state matrix, 9×9');
+    expect(hover.markdown).toContain('-2.5');
+  });
+
   it('tells where a signal was declared, also from a controller line', () => {
     const { text, position } = cursor(HOIST.replace('track height', 'track hei|ght'));
     const hover = hoverAt(analyze(text), position)!;
