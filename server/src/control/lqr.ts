@@ -98,16 +98,21 @@ export function designLqr(
   const qCheck = checkPositiveSemidefinite(Qtilde);
   if (!qCheck.ok) return result({ failure: 'q-not-positive-semidefinite', smallest: qCheck.smallest });
 
-  const controllability = analyzeControllability(A, B, domain, { computeMargin: false });
-  const unstabilisable = controllability.uncontrollableModes.find((mode) => !mode.stable);
-  if (unstabilisable) return result({ failure: 'not-stabilisable', mode: unstabilisable.value });
-
-  const observability = analyzeObservability(Atilde, Qtilde, domain, { computeMargin: false });
-  const axisTolerance = eigenvalueTolerance(Atilde, domain);
-  const onAxis = observability.unobservableModes.find(
-    (mode) => classifyEigenvalue(mode.value, domain, axisTolerance) === 'marginal',
-  );
-  if (onAxis) return result({ failure: 'not-detectable-on-axis', mode: onAxis.value });
+  // The structural conditions for a stabilising solution (stabilisable (A, B); no unobservable
+  // mode of (Q̃, Ã) on the stability boundary) name the mode at fault. They are checked when the
+  // solver fails or its closed loop is not stable: a stabilising solution proves them, so a
+  // successful design does not pay for two staircases.
+  const structuralFailure = (): LqrResult | null => {
+    const controllability = analyzeControllability(A, B, domain, { computeMargin: false });
+    const unstabilisable = controllability.uncontrollableModes.find((mode) => !mode.stable);
+    if (unstabilisable) return result({ failure: 'not-stabilisable', mode: unstabilisable.value });
+    const observability = analyzeObservability(Atilde, Qtilde, domain, { computeMargin: false });
+    const axisTolerance = eigenvalueTolerance(Atilde, domain);
+    const onAxis = observability.unobservableModes.find(
+      (mode) => classifyEigenvalue(mode.value, domain, axisTolerance) === 'marginal',
+    );
+    return onAxis ? result({ failure: 'not-detectable-on-axis', mode: onAxis.value }) : null;
+  };
 
   const solution =
     domain === 'continuous'
@@ -115,6 +120,8 @@ export function designLqr(
       : solveDiscreteRiccati(A, B, Q, R, N);
   const classicalMarginsApply = domain === 'continuous' && isDiagonal(R) && isZero(N);
   if (!solution.ok || !solution.X) {
+    const structural = structuralFailure();
+    if (structural) return structural;
     const failure: LqrFailure = solution.failure === 'no-convergence' ? 'no-convergence' : 'no-stabilising-solution';
     return result({ failure, residual: solution.residual, conditionEstimate: solution.conditionEstimate });
   }
@@ -131,11 +138,14 @@ export function designLqr(
     const rhs = multiply(BtX, A).map((row, i) => row.map((value, j) => value + (N ? N[j][i] : 0)));
     K = solveLinear(H, rhs).X;
   }
-  const BK = multiply(B, K);
-  const closedLoopPoles = eigenvalues(A.map((row, i) => row.map((value, j) => value - BK[i][j])));
+  // The solver already has the eigenvalues of A − B·K for its own gain.
+  const closedLoopPoles =
+    K === solution.gain && solution.closedLoopEigenvalues.length === n ? solution.closedLoopEigenvalues : closedLoopEigenvalues(A, B, K);
   const tolerance = eigenvalueTolerance(A, domain);
   const stable = closedLoopPoles.every((pole) => classifyEigenvalue(pole, domain, tolerance) === 'stable');
   if (!stable) {
+    const structural = structuralFailure();
+    if (structural) return structural;
     return result({
       failure: 'no-stabilising-solution',
       K,
@@ -154,4 +164,9 @@ export function designLqr(
     conditionEstimate: solution.conditionEstimate,
     classicalMarginsApply,
   };
+}
+
+function closedLoopEigenvalues(A: Rows, B: Rows, K: Rows) {
+  const BK = multiply(B, K);
+  return eigenvalues(A.map((row, i) => row.map((value, j) => value - BK[i][j])));
 }
