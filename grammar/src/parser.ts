@@ -912,7 +912,6 @@ export interface ParseOptions {
   foldMinEntries?: number;
 }
 
-
 /** Builds a parser with Chevrotain's grammar validations on; throws when the grammar is broken. */
 export function validateGrammar(): void {
   new PlantParser(true);

@@ -375,7 +375,7 @@ export function designController(
     return limit ? [limit.low, limit.high] : null;
   });
   const stepped = tracked.length ? tracked : integrated;
-  // The closed loop from the first set-point to its output (for the bandwidth rule on T).
+  // Sampled designs: the closed loop from the first set-point to its output (bandwidth rule on T).
   let referenceLoop: { model: StateSpace; output: number } | null = null;
   if (stepped.length && setpoint?.feasibility !== 'zero-at-dc') {
     const stepSizes = stepped.map((output) => {
@@ -401,7 +401,7 @@ export function designController(
           : undefined,
       points: settings.simulationPoints,
     };
-    referenceLoop = { model: referenceClosedLoop(problem), output: stepped[0] };
+    if (model.domain === 'discrete') referenceLoop = { model: referenceClosedLoop(problem), output: stepped[0] };
     const { reports, raw } = stepReport(plant, problem, limits, y0);
     report.step = reports;
     report.details.simulation = { methods: raw.methods, duration: raw.duration, step: raw.step, truncated: raw.truncated };
@@ -607,7 +607,6 @@ function designEstimator(
   return { L, form, poles, details };
 }
 
-/** The loop as implemented, broken at the plant input (state feedback, or controller + observer). */
 /**
  * −3 dB bandwidth (rad/s) of the sampled closed loop from the first set-point to its output,
  * searched up to π/T; null when the loop is unstable or the response does not fall 3 dB there.
@@ -621,6 +620,7 @@ function referenceBandwidth(reference: { model: StateSpace; output: number }, T:
   return bandwidth(A, column(B), [C[reference.output]], [[D[reference.output]?.[0] ?? 0]], omegas, 'discrete', T);
 }
 
+/** The loop as implemented, broken at the plant input (state feedback, or controller + observer). */
 function implementedLoop(model: DesignModel, K: Rows, augmented: { A: Rows; B: Rows }, observer: EstimatorInfo | null, integrated: number[]): StateSpace {
   if (!observer) {
     // Full-state feedback (integrators are part of the fed-back state): L = K (λI − A_aug)⁻¹ B_aug.
