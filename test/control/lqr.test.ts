@@ -5,6 +5,22 @@ import { augmentComputationDelay } from '../../server/src/control/delayAugment';
 import { loopMargins, stateFeedbackLoop } from '../../server/src/control/margins';
 import { EPS, frobenius, multiply, reference, relativeError, subtract, transpose } from './controlTestHelpers';
 
+describe('LQR closed-loop poles', () => {
+  it('double integrator, Q = I, R = 1: K = [1, √3], poles −√3/2 ± j/2, listed by real then imaginary part', () => {
+    // Closed form (from memory, verified by substitution): X = [[√3, 1], [1, √3]] solves
+    // AᵀX + XA − XBBᵀX + I = 0; K = BᵀX = [1, √3]; s² + √3·s + 1 = 0.
+    const result = designLqr([[0, 1], [0, 0]], [[0], [1]], [[1, 0], [0, 1]], [[1]], undefined, 'continuous');
+    expect(result.ok).toBe(true);
+    expect(result.K![0][0]).toBeCloseTo(1, 12);
+    expect(result.K![0][1]).toBeCloseTo(Math.sqrt(3), 12);
+    const poles = result.closedLoopPoles;
+    expect(poles).toHaveLength(2);
+    expect(poles[0].re).toBeCloseTo(-Math.sqrt(3) / 2, 12);
+    expect(poles[0].im).toBeCloseTo(-0.5, 12);
+    expect(poles[1].im).toBeCloseTo(0.5, 12);
+  });
+});
+
 describe('LQR against SciPy', () => {
   it('matches solve_continuous_are / solve_discrete_are gains (with and without cross weight N)', () => {
     // Reference: test/reference/control_response.py (scipy.linalg solve_*_are, s = N).

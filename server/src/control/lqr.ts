@@ -12,7 +12,7 @@
 // has gain margin [½, ∞) and phase margin ≥ 60° (Safonov & Athans 1977, from the return
 // difference inequality). Nowhere else (discrete, cross weights, observers) do they hold; there
 // the engine computes the actual margins (margins.ts).
-import { eigenvalues, solveContinuousRiccati, solveDiscreteRiccati, solveLinear } from '../numeric';
+import { eigenvalues, solveContinuousRiccati, solveDiscreteRiccati, solveLinear, sortComplex } from '../numeric';
 import type { Complex, Rows } from '../numeric/types';
 import { analyzeControllability, analyzeObservability, classifyEigenvalue, eigenvalueTolerance } from './structure';
 import { checkPositiveDefinite, checkPositiveSemidefinite } from './weightChecks';
@@ -138,9 +138,12 @@ export function designLqr(
     const rhs = multiply(BtX, A).map((row, i) => row.map((value, j) => value + (N ? N[j][i] : 0)));
     K = solveLinear(H, rhs).X;
   }
-  // The solver already has the eigenvalues of A − B·K for its own gain.
+  // The solver already has the eigenvalues of A − B·K for its own gain (in Schur order: sorted
+  // here as `eigenvalues` sorts them).
   const closedLoopPoles =
-    K === solution.gain && solution.closedLoopEigenvalues.length === n ? solution.closedLoopEigenvalues : closedLoopEigenvalues(A, B, K);
+    K === solution.gain && solution.closedLoopEigenvalues.length === n
+      ? sortComplex(solution.closedLoopEigenvalues)
+      : closedLoopEigenvalues(A, B, K);
   const tolerance = eigenvalueTolerance(A, domain);
   const stable = closedLoopPoles.every((pole) => classifyEigenvalue(pole, domain, tolerance) === 'stable');
   if (!stable) {
