@@ -67,4 +67,13 @@ describe('step metrics', () => {
     expect(flat.measurable).toBe(false);
     expect(flat.steadyStateError).toBe(1);
   });
+
+  it('shows a steady-state error in the last bits of the values as 0, and keeps a real one', () => {
+    const t = [0, 1, 2, 3];
+    const setPoint = 0.0095;
+    const lastBit = setPoint * (1 + 2 * Number.EPSILON); // one or two units in the last place
+    expect(computeStepMetrics(t, [0, 0.005, 0.009, setPoint], setPoint, { finalValue: lastBit }).steadyStateError).toBe(0);
+    const real = computeStepMetrics(t, [0, 0.005, 0.009, setPoint], setPoint, { finalValue: setPoint * (1 - 1e-9) });
+    expect(real.steadyStateError).toBeCloseTo(setPoint * 1e-9, 20);
+  });
 });

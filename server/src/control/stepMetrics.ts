@@ -148,7 +148,9 @@ export function computeStepMetrics(time: number[], values: number[], setPoint: n
     undershootPercent,
     peakValue,
     peakTime: time[peakIndex] ?? 0,
-    steadyStateError: setPoint - finalValue,
+    // A difference at the last bits of the two values is rounding, not an error: shown as 0.
+    steadyStateError:
+      Math.abs(setPoint - finalValue) <= 8 * Number.EPSILON * Math.max(Math.abs(setPoint), Math.abs(finalValue)) ? 0 : setPoint - finalValue,
     inputs,
   };
 }
