@@ -40,6 +40,8 @@ const UNIT_SET: ReadonlySet<string> = new Set(T.UNIT_NAMES);
 
 function describeToken(token: IToken): string {
   if (token.tokenType === T.Newline) return 'the end of the line';
+  // A matrix read in one piece is blamed, like the grammar would, at its opening bracket.
+  if (token.tokenType === T.PlainNumberMatrix) return '`[`';
   const image = token.image.length > 24 ? `${token.image.slice(0, 24)}…` : token.image;
   if (T.isKeywordToken(token.tokenType)) return `the reserved word \`${image}\``;
   return `\`${image}\``;
@@ -47,6 +49,11 @@ function describeToken(token: IToken): string {
 
 function tokenEnd(token: IToken): number {
   return token.startOffset + token.image.length;
+}
+
+/** End of the text a diagnostic about this one token covers (a folded matrix: its `[`). */
+function blameEnd(token: IToken): number {
+  return token.tokenType === T.PlainNumberMatrix ? token.startOffset + 1 : tokenEnd(token);
 }
 
 function isRealToken(token: IToken | undefined): token is IToken {
@@ -133,7 +140,7 @@ class PlantParser extends EmbeddedActionsParser {
     if (isRealToken(next) && next.tokenType !== T.Newline && sameLine) {
       return {
         start: next.startOffset,
-        end: tokenEnd(next),
+        end: blameEnd(next),
         message: `expected ${what}, found ${describeToken(next)}`,
       };
     }
@@ -1185,7 +1192,7 @@ function parseStatement(
         ? `unexpected ${describeToken(token)}: the ${lineName} is already complete here`
         : `unexpected ${describeToken(token)}`,
       token.startOffset,
-      isLeftover ? Math.max(tokenEnd(token), tokenEnd(last)) : tokenEnd(token),
+      isLeftover ? Math.max(blameEnd(token), tokenEnd(last)) : blameEnd(token),
     );
   }
   return item ?? undefined;
@@ -1209,7 +1216,7 @@ function parseHeader(statement: Statement, lines: LineIndex, report: Report): Pl
       return { kind: 'identifier', name: token.image, ...lines.span(token.startOffset, tokenEnd(token)) };
     }
     const at = token ? token.startOffset : tokenEnd(after);
-    const atEnd = token ? tokenEnd(token) : at;
+    const atEnd = token ? blameEnd(token) : at;
     report('syntax/missing-name', token ? `expected ${what}, found ${describeToken(token)}` : `expected ${what}`, at, atEnd);
     return { kind: 'identifier', name: '', ...lines.span(at, at) };
   };
@@ -1233,7 +1240,7 @@ function parseHeader(statement: Statement, lines: LineIndex, report: Report): Pl
           ? `expected \`for <plant>\` after the controller name, found ${describeToken(forToken)}`
           : 'expected `for <plant>` after the controller name',
         at,
-        forToken ? tokenEnd(forToken) : at,
+        forToken ? blameEnd(forToken) : at,
       );
       if (forToken) position = tokens.length;
     }

@@ -44,6 +44,27 @@ describe('folding of plain-number matrices', () => {
     expect(codes.length).toBeGreaterThan(0);
   });
 
+  it('gives the grammar\'s tree and diagnostics for any edit of a large matrix (random insertions and deletions)', () => {
+    const big = matrixText(9, 9, (i, j) => (i === j ? '-2.5e-1' : (i * j) % 4 === 1 ? '+1' : '0'));
+    const bases = [
+      `plant edited {\n  states a, b\n  A = ${big}\n  B = [1; 2]\n}\n`,
+      `plant p {\n  A = [0]\n}\ncontroller c for p {\n  poles = ${big}\n  lqr Q = ${big}, R = [1]\n}\n`,
+      `plant ${big} {\n  A = ${big}\n}\n${big}\n`,
+    ];
+    const edit = fc.tuple(fc.nat(), fc.boolean(), fc.constantFrom(...'0123456789.,;-+eEjx[] \n#(*=A{}'));
+    fc.assert(
+      fc.property(fc.constantFrom(...bases), fc.array(edit, { minLength: 0, maxLength: 6 }), (base, edits) => {
+        let text = base;
+        for (const [position, insert, character] of edits) {
+          const at = position % (text.length + 1);
+          text = insert ? text.slice(0, at) + character + text.slice(at) : text.slice(0, at) + text.slice(at + 1);
+        }
+        expect(parsePlantText(text, { foldMinEntries: 1 })).toEqual(parsePlantText(text, { foldMinEntries: Number.POSITIVE_INFINITY }));
+      }),
+      { numRuns: 1500 },
+    );
+  });
+
   it('reads every number literal as JavaScript does (reference: ECMAScript Number(string))', () => {
     const digits = fc.string({ unit: fc.constantFrom(...'0123456789'), minLength: 1, maxLength: 22 });
     const literal = fc
