@@ -209,7 +209,9 @@ const positionOf = (text, offset) => {
 };
 
 async function runSoak(edits) {
-  const samples = join(root, 'samples', 'hoist.plant');
+  // `--model FILE` soaks another model (e.g. one with large all-number matrices).
+  const modelIndex = args.indexOf('--model');
+  const samples = modelIndex >= 0 ? args[modelIndex + 1] : join(root, 'samples', 'hoist.plant');
   let text = existsSync(samples) ? readFileSync(samples, 'utf8') : ladderModel(4);
   const session = startSession({ debounceMs: 10 });
   await session.initialize();
