@@ -15,7 +15,7 @@ import {
   transposeDense,
   zerosDense,
 } from './dense';
-import { realSchurDense } from './schur';
+import { realSchurDense, type RealSchurDense } from './schur';
 import { quasiTriangularBlocks, solveQuasiTriangularSylvester, solveSmallSystem } from './sylvester';
 import type { Rows } from './types';
 
@@ -60,12 +60,15 @@ function isFiniteDense(X: Dense): boolean {
   return X.data.every((value) => Number.isFinite(value));
 }
 
-/** A·X + X·Aᵀ + Q = 0 on Dense matrices. */
-export function solveLyapunovContinuousDense(A: Dense, Q: Dense): { X: Dense; ok: boolean } {
+/**
+ * A·X + X·Aᵀ + Q = 0 on Dense matrices. `schur`, when given, is the real Schur form of A already
+ * computed by the caller (it is not recomputed).
+ */
+export function solveLyapunovContinuousDense(A: Dense, Q: Dense, schur?: RealSchurDense): { X: Dense; ok: boolean } {
   const n = A.rows;
   if (invalidInput(A, Q)) return nanResult(A.rows);
   if (n === 0) return { X: zerosDense(0, 0), ok: true };
-  const { T: S, Z: U, converged } = realSchurDense(A);
+  const { T: S, Z: U, converged } = schur ?? realSchurDense(A);
   const F = transformedRightHandSide(U, Q);
   // λᵢ + λⱼ counts as zero within 2n·ε·‖A‖_F (rounding of the Schur form).
   const minimumPivot = 2 * n * Number.EPSILON * normFrobeniusDense(A);
@@ -75,12 +78,12 @@ export function solveLyapunovContinuousDense(A: Dense, Q: Dense): { X: Dense; ok
   return { X, ok: converged && solved && isFiniteDense(X) };
 }
 
-/** A·X·Aᵀ − X + Q = 0 on Dense matrices. */
-export function solveLyapunovDiscreteDense(A: Dense, Q: Dense): { X: Dense; ok: boolean } {
+/** A·X·Aᵀ − X + Q = 0 on Dense matrices (`schur`: A's real Schur form, when the caller has it). */
+export function solveLyapunovDiscreteDense(A: Dense, Q: Dense, schur?: RealSchurDense): { X: Dense; ok: boolean } {
   const n = A.rows;
   if (invalidInput(A, Q)) return nanResult(A.rows);
   if (n === 0) return { X: zerosDense(0, 0), ok: true };
-  const { T: S, Z: U, converged } = realSchurDense(A);
+  const { T: S, Z: U, converged } = schur ?? realSchurDense(A);
   const F = transformedRightHandSide(U, Q);
   const normA = normFrobeniusDense(A);
   const minimumPivot = 2 * n * Number.EPSILON * Math.max(1, normA * normA);

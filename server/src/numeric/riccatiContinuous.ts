@@ -21,7 +21,7 @@ import {
 import { luFactor, luSolveDense, reciprocalConditionEstimate } from './lu';
 import { solveLyapunovContinuousDense } from './lyapunov';
 import { matrixSignDense } from './matrixSign';
-import { eigenvaluesOfQuasiTriangular, realSchurDense } from './schur';
+import { eigenvaluesOfQuasiTriangular, realSchurDense, type RealSchurDense } from './schur';
 import { orderedRealSchurDense } from './schurReorder';
 import type { Complex, Rows } from './types';
 import { countIterations } from './iterationCount';
@@ -363,9 +363,11 @@ export function solveContinuousRiccati(
   // K = R⁻¹(BᵀX + Nᵀ); closed loop A − BK.
   const gain = multiplyDense(Rinv, combine(multiplyDense(transposeDense(inputs.B), X), 1, transposeDense(inputs.N), 1));
   const closedLoop = combine(inputs.A, 1, multiplyDense(inputs.B, gain), -1);
-  const closedLoopSchur = realSchurDense(closedLoop);
+  // One Schur form of the closed loop's transpose serves both its eigenvalues and the condition
+  // estimate's Lyapunov solve.
+  const closedLoopSchur = realSchurDense(transposeDense(closedLoop));
   const closedLoopEigenvalues = closedLoopSchur.eigenvalues;
-  const conditionEstimate = continuousConditionEstimate(closedLoop, Abar, G, Qbar, X);
+  const conditionEstimate = continuousConditionEstimate(closedLoop, Abar, G, Qbar, X, closedLoopSchur);
   const result: RiccatiSolution = {
     X: denseToRows(X),
     gain: denseToRows(gain),
@@ -380,10 +382,10 @@ export function solveContinuousRiccati(
   return result;
 }
 
-function continuousConditionEstimate(closedLoop: Dense, Abar: Dense, G: Dense, Qbar: Dense, X: Dense): number {
+function continuousConditionEstimate(closedLoop: Dense, Abar: Dense, G: Dense, Qbar: Dense, X: Dense, transposedSchur: RealSchurDense): number {
   const n = X.rows;
-  // Ω(Z) = AcᵀZ + Z·Ac; Ω⁻¹(I) from one more Lyapunov solve.
-  const inverseAtIdentity = solveLyapunovContinuousDense(transposeDense(closedLoop), identityDense(n));
+  // Ω(Z) = AcᵀZ + Z·Ac; Ω⁻¹(I) from one more Lyapunov solve (on the Schur form of Acᵀ).
+  const inverseAtIdentity = solveLyapunovContinuousDense(transposeDense(closedLoop), identityDense(n), transposedSchur);
   if (!inverseAtIdentity.ok) return Infinity;
   const omegaInverseNorm = normFrobeniusDense(inverseAtIdentity.X);
   const normX = normFrobeniusDense(X);
