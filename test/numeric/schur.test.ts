@@ -153,6 +153,26 @@ describe('ordered real Schur form', () => {
     checkSchurIdentities(A, ordered.T, ordered.Z);
   });
 
+  it('moves real eigenvalues one by one (rotation swaps) in a non-normal matrix of known spectrum', () => {
+    // A = Q·(D + U)·Qᵀ: D diagonal with interleaved signs, U strictly upper triangular, Q orthogonal;
+    // the spectrum is D's diagonal by construction, every swap is between 1×1 blocks.
+    const n = 40;
+    const diagonal = Array.from({ length: n }, (_, i) => (i % 2 === 0 ? 1 : -1) * (1 + i / 4));
+    const U = seededMatrix(n, n, 41).map((row, i) => row.map((value, j) => (j > i ? value : j === i ? diagonal[i] : 0)));
+    const { Z: Q } = realSchur(seededMatrix(n, n, 42));
+    const A = multiply(multiply(Q, U), transpose(Q));
+    const ordered = orderedRealSchur(A, stable);
+    expect(ordered.reordered).toBe(true);
+    expect(ordered.selectedCount).toBe(n / 2);
+    checkSchurIdentities(A, ordered.T, ordered.Z);
+    const leading = diagonalEigenvalues(ordered.T).slice(0, n / 2).map((v) => v.re).sort((a, b) => a - b);
+    const expected = diagonal.filter((v) => v < 0).sort((a, b) => a - b);
+    leading.forEach((value, i) => expect(Math.abs(value - expected[i])).toBeLessThan(1e3 * n * EPS * normFrobenius(A)));
+    const Z1 = ordered.Z.map((row) => row.slice(0, n / 2));
+    const T11 = ordered.T.slice(0, n / 2).map((row) => row.slice(0, n / 2));
+    expect(normFrobenius(subtract(multiply(A, Z1), multiply(Z1, T11)))).toBeLessThan(100 * n * EPS * normFrobenius(A));
+  });
+
   it('moves complex pairs past complex pairs', () => {
     // Block-diagonal of rotations with growth rates +1, −2, +3, −4 in a random orthogonal basis.
     const blocks = [[1, 3], [-2, 5], [3, 7], [-4, 11]];

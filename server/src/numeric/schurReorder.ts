@@ -121,6 +121,46 @@ function similarity(q: Float64Array, m: Float64Array, nd: number): Float64Array 
 }
 
 /**
+ * Swaps two adjacent 1×1 blocks by one Givens rotation (LAPACK dlaexc, n1 = n2 = 1): the rotation
+ * taking [t12, t22 − t11] to [r, 0] is applied to rows j1, j1+1 right of the block, to columns
+ * j1, j1+1 above it and to Z's columns. This swap is always stable, so no test is needed; it is
+ * the common case (real spectra) and costs O(n) with no allocation.
+ */
+function swapOneByOne(t: Float64Array, n: number, z: Float64Array | null, j1: number): void {
+  const j2 = j1 + 1;
+  const t11 = t[j1 * n + j1];
+  const t22 = t[j2 * n + j2];
+  const f = t[j1 * n + j2];
+  const g = t22 - t11;
+  const r = Math.hypot(f, g);
+  const cs = r === 0 ? 1 : f / r;
+  const sn = r === 0 ? 0 : g / r;
+  for (let j = j2 + 1; j < n; j++) {
+    const x = t[j1 * n + j];
+    const y = t[j2 * n + j];
+    t[j1 * n + j] = cs * x + sn * y;
+    t[j2 * n + j] = cs * y - sn * x;
+  }
+  for (let i = 0; i < j1; i++) {
+    const x = t[i * n + j1];
+    const y = t[i * n + j2];
+    t[i * n + j1] = cs * x + sn * y;
+    t[i * n + j2] = cs * y - sn * x;
+  }
+  t[j1 * n + j1] = t22;
+  t[j2 * n + j2] = t11;
+  t[j2 * n + j1] = 0;
+  if (z) {
+    for (let i = 0; i < n; i++) {
+      const x = z[i * n + j1];
+      const y = z[i * n + j2];
+      z[i * n + j1] = cs * x + sn * y;
+      z[i * n + j2] = cs * y - sn * x;
+    }
+  }
+}
+
+/**
  * Swaps the adjacent diagonal blocks of sizes n1 (at j1) and n2 (at j1 + n1) of the n×n
  * quasi-triangular t, updating z. Returns false (and leaves t, z untouched) when the swap is rejected.
  */
@@ -132,6 +172,10 @@ export function swapAdjacentBlocks(
   n1: number,
   n2: number,
 ): boolean {
+  if (n1 === 1 && n2 === 1) {
+    swapOneByOne(t, n, z, j1);
+    return true;
+  }
   const nd = n1 + n2;
   const d = new Float64Array(nd * nd);
   for (let i = 0; i < nd; i++) for (let j = 0; j < nd; j++) d[i * nd + j] = t[(j1 + i) * n + j1 + j];
