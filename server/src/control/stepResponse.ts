@@ -257,6 +257,41 @@ function downsampleIndices(count: number, maximum: number): number[] {
   return indices;
 }
 
+/**
+ * x_{k+1} = Φ·x_k + f from x_0 = 0 for count points, on flat row-major Φ (size×size); returns
+ * the states one after another. Two rows of Φ share each load of x_k (about a third faster than
+ * row by row, measured with test/bench), and every array is a local so the loop stays in registers.
+ */
+function recurseLinear(transitionFlat: Float64Array, forcing: Float64Array, size: number, count: number): Float64Array {
+  const phi = transitionFlat;
+  const states = new Float64Array(count * size);
+  for (let k = 1; k < count; k++) {
+    const previous = (k - 1) * size;
+    const next = k * size;
+    let i = 0;
+    for (; i + 1 < size; i += 2) {
+      const row0 = i * size;
+      const row1 = row0 + size;
+      let sum0 = forcing[i];
+      let sum1 = forcing[i + 1];
+      for (let j = 0; j < size; j++) {
+        const x = states[previous + j];
+        sum0 += phi[row0 + j] * x;
+        sum1 += phi[row1 + j] * x;
+      }
+      states[next + i] = sum0;
+      states[next + i + 1] = sum1;
+    }
+    if (i < size) {
+      const row = i * size;
+      let sum = forcing[i];
+      for (let j = 0; j < size; j++) sum += phi[row + j] * states[previous + j];
+      states[next + i] = sum;
+    }
+  }
+  return states;
+}
+
 interface RawRun {
   z: ArrayLike<number>[]; // per time
   u: number[][];
@@ -328,18 +363,7 @@ export function simulateStepResponses(problem: StepResponseProblem): StepRespons
   transition.Phi.forEach((row, i) => transitionFlat.set(row, i * size));
   const runLinear = (r: number[]): RawRun => {
     const count = grid.count;
-    const forcing = matVec(transition.Gamma, r);
-    const states = new Float64Array(count * size);
-    for (let k = 1; k < count; k++) {
-      const previous = (k - 1) * size;
-      const next = k * size;
-      for (let i = 0; i < size; i++) {
-        const row = i * size;
-        let sum = forcing[i];
-        for (let j = 0; j < size; j++) sum += transitionFlat[row + j] * states[previous + j];
-        states[next + i] = sum;
-      }
-    }
+    const states = recurseLinear(transitionFlat, Float64Array.from(matVec(transition.Gamma, r)), size, count);
     const z = Array.from({ length: count }, (_, k) => states.subarray(k * size, (k + 1) * size));
     const u = z.map((state) => commandOf(state, r));
     const y = z.map((state, k) => outputOf(state, u[k]));
