@@ -7,6 +7,7 @@ export const reference = fixture as unknown as ControlFixture;
 
 export interface ControlFixture {
   zeroOrderHold: { n: number; m: number; T: number; A: Rows; B: Rows; Phi: Rows; Gamma: Rows }[];
+  frequencyResponse: { n: number; A: Rows; B: Rows; C: Rows; D: Rows; omegas: number[]; G: { re: Rows; im: Rows }[] }[];
   lqr: {
     n: number;
     m: number;

@@ -12,7 +12,8 @@ Sources (all SciPy / NumPy, seeded):
   - sampled continuous cost (Van Loan 1978): expm of the 2(n+m) block matrix
     [[-F^T, Qc], [0, F]] with F = [[A, B], [0, 0]], Qc = [[Q, N], [N^T, R]]; cross-checked in this
     script by adaptive quadrature (scipy.integrate.quad_vec) of exp(F^T t) Qc exp(F t) over [0, T];
-  - step responses: scipy.signal.lsim of the closed loop (A - B K, B Nr, C - D K, D Nr) to a step.
+  - step responses: scipy.signal.lsim of the closed loop (A - B K, B Nr, C - D K, D Nr) to a step;
+  - frequency responses: C (jwI - A)^-1 B + D by numpy.linalg.solve (LAPACK zgesv).
 """
 import json
 import os
@@ -189,10 +190,30 @@ for n in (2, 3, 4, 6):
                       't': [float(v) for v in t[::40]], 'y': [float(v) for v in np.atleast_1d(y)[::40]]})
         break
 
+# Frequency responses G(jω) = C (jωI − A)⁻¹ B + D by NumPy's dense complex solve (LAPACK zgesv),
+# with a separate seed so the sections above are unchanged. Random A (complex pairs), plus one
+# lightly damped pair (ζ = 0.01) evaluated beside its resonance.
+freq_rng = np.random.default_rng(20261202)
+frequency = []
+for n in [3, 8, 20, 60]:
+    a = freq_rng.standard_normal((n, n)) / np.sqrt(n) - 0.3 * np.eye(n)
+    b = freq_rng.standard_normal((n, 2))
+    c = freq_rng.standard_normal((2, n))
+    d = freq_rng.standard_normal((2, 2))
+    if n == 8:
+        a[:2, :2] = [[0, 1], [-25.0, -0.1]]
+    omegas = [0.05, 0.7, 3.0, 4.99, 40.0]
+    values = []
+    for w in omegas:
+        g = c @ np.linalg.solve(1j * w * np.eye(n) - a, b) + d
+        values.append({'re': rows(g.real), 'im': rows(g.imag)})
+    frequency.append({'n': n, 'A': rows(a), 'B': rows(b), 'C': rows(c), 'D': rows(d), 'omegas': omegas, 'G': values})
+
 out = {
     'generator': 'test/reference/control_response.py',
     'scipy': scipy.__version__, 'numpy': np.__version__,
     'zeroOrderHold': zoh, 'lqr': lqr, 'kalman': kalman, 'sampledCost': sampled, 'stepResponse': steps,
+    'frequencyResponse': frequency,
 }
 path = os.path.join(os.path.dirname(__file__), '..', 'fixtures', 'reference', 'control_response.json')
 with open(path, 'w') as f:

@@ -1,25 +1,167 @@
 // Frequency response of a state-space model G = C (λI − A)⁻¹ B + D at λ = jω (continuous) or
-// λ = e^{jωT} (discrete, ω up to the Nyquist frequency π/T). A is first reduced to upper
-// Hessenberg form A = Q H Qᵀ (numeric hessenbergDecomposition), so each frequency costs one
-// O(n²·m) complex Hessenberg solve with partial pivoting (Laub, "Efficient multivariable
-// frequency response computations", IEEE TAC 26(2), 1981) instead of an O(n³) LU.
+// λ = e^{jωT} (discrete, ω up to the Nyquist frequency π/T). A is first brought to real Schur
+// form A = Z T Zᵀ (T quasi-upper-triangular, Z orthogonal), so each frequency costs one block
+// back substitution with (λI − T): about n²·m real multiply-adds, no copy and no elimination
+// (the Schur variant of Laub's method, "Efficient multivariable frequency response
+// computations", IEEE TAC 26(2), 1981). When the QR iteration does not converge, the Hessenberg
+// form A = Q H Qᵀ and an O(n²·m) complex Hessenberg solve with partial pivoting serve instead.
 // Phase is unwrapped along the grid (jumps > 180° removed by ±360°), magnitude in dB.
 import type { Complex, ComplexRows, Rows } from '../numeric/types';
-import { hessenbergDecomposition } from '../numeric';
+import { denseFromRows, hessenbergDecomposition, realSchurDense } from '../numeric';
 
 export type TransferEvaluator = (point: Complex) => { value: ComplexRows; singular: boolean };
 
 /**
- * Precomputes the Hessenberg form of A; the returned function evaluates G(λ). `singular` is set
- * when λ is numerically an eigenvalue of A (a pivot below n·ε·‖H‖).
+ * Precomputes the real Schur form of A (or, failing that, its Hessenberg form); the returned
+ * function evaluates G(λ). `singular` is set when λ is numerically an eigenvalue of A (a pivot
+ * below n·ε·max|T|).
  */
 export function transferEvaluator(A: Rows, B: Rows, C: Rows, D: Rows): TransferEvaluator {
   const n = A.length;
-  const m = D[0]?.length ?? B[0]?.length ?? 0;
-  const p = C.length;
   if (n === 0) {
     return () => ({ value: { re: D.map((row) => row.slice()), im: D.map((row) => row.map(() => 0)) }, singular: false });
   }
+  return schurTransferEvaluator(A, B, C, D) ?? hessenbergTransferEvaluator(A, B, C, D);
+}
+
+/** G(λ) = C̃ (λI − T)⁻¹ B̃ + D with A = Z T Zᵀ, B̃ = Zᵀ B, C̃ = C Z; null when the Schur form fails. */
+export function schurTransferEvaluator(A: Rows, B: Rows, C: Rows, D: Rows): TransferEvaluator | null {
+  const n = A.length;
+  const m = D[0]?.length ?? B[0]?.length ?? 0;
+  const p = C.length;
+  const schur = realSchurDense(denseFromRows(A));
+  if (!schur.converged) return null;
+  const t = schur.T.data;
+  const z = schur.Z.data;
+  let scale = 0;
+  for (let i = 0; i < n * n; i++) scale = Math.max(scale, Math.abs(t[i]));
+  const bt = new Float64Array(n * m);
+  for (let k = 0; k < n; k++) {
+    for (let j = 0; j < m; j++) {
+      const bkj = B[k][j];
+      if (bkj === 0) continue;
+      for (let i = 0; i < n; i++) bt[i * m + j] += z[k * n + i] * bkj;
+    }
+  }
+  const ct = new Float64Array(p * n);
+  for (let i = 0; i < p; i++) {
+    for (let k = 0; k < n; k++) {
+      const cik = C[i][k];
+      if (cik === 0) continue;
+      for (let j = 0; j < n; j++) ct[i * n + j] += cik * z[k * n + j];
+    }
+  }
+  const pivotFloor = n * Number.EPSILON * Math.max(scale, Number.MIN_VALUE);
+  const xr = new Float64Array(n * m);
+  const xi = new Float64Array(n * m);
+  return (point: Complex) => {
+    const lr = point.re;
+    const li = point.im;
+    let singular = false;
+    // Back substitution from the last row; a nonzero subdiagonal T[i][i−1] marks a 2×2 block.
+    for (let i = n - 1; i >= 0; ) {
+      const pair = i > 0 && t[i * n + i - 1] !== 0;
+      const top = pair ? i - 1 : i;
+      const size = pair ? 2 : 1;
+      for (let j = 0; j < m; j++) {
+        // r_q = b̃_q + Σ_{k beyond the block} T[q][k]·x_k for the block's rows q.
+        let r0r = bt[top * m + j];
+        let r0i = 0;
+        let r1r = pair ? bt[i * m + j] : 0;
+        let r1i = 0;
+        const row0 = top * n;
+        const row1 = i * n;
+        for (let k = i + 1; k < n; k++) {
+          const x = xr[k * m + j];
+          const y = xi[k * m + j];
+          const t0 = t[row0 + k];
+          r0r += t0 * x;
+          r0i += t0 * y;
+          if (pair) {
+            const t1 = t[row1 + k];
+            r1r += t1 * x;
+            r1i += t1 * y;
+          }
+        }
+        if (size === 1) {
+          const dr = lr - t[row0 + top];
+          const d = dr * dr + li * li;
+          if (Math.sqrt(d) <= pivotFloor) singular = true;
+          xr[top * m + j] = (r0r * dr + r0i * li) / d;
+          xi[top * m + j] = (r0i * dr - r0r * li) / d;
+        } else {
+          // [λ − a, −b; −c, λ − d]·[x0; x1] = [r0; r1], Gaussian elimination with row pivoting.
+          let a00r = lr - t[row0 + top];
+          let a00i = li;
+          let a01r = -t[row0 + i];
+          let a01i = 0;
+          let a10r = -t[row1 + top];
+          let a10i = 0;
+          let a11r = lr - t[row1 + i];
+          let a11i = li;
+          if (a10r * a10r + a10i * a10i > a00r * a00r + a00i * a00i) {
+            [a00r, a00i, a01r, a01i, a10r, a10i, a11r, a11i] = [a10r, a10i, a11r, a11i, a00r, a00i, a01r, a01i];
+            [r0r, r0i, r1r, r1i] = [r1r, r1i, r0r, r0i];
+          }
+          const p0 = a00r * a00r + a00i * a00i;
+          if (Math.sqrt(p0) <= pivotFloor) {
+            singular = true;
+            xr[top * m + j] = xi[top * m + j] = xr[i * m + j] = xi[i * m + j] = NaN;
+            continue;
+          }
+          // factor = a10 / a00
+          const fr = (a10r * a00r + a10i * a00i) / p0;
+          const fi = (a10i * a00r - a10r * a00i) / p0;
+          const b11r = a11r - (fr * a01r - fi * a01i);
+          const b11i = a11i - (fr * a01i + fi * a01r);
+          const s1r = r1r - (fr * r0r - fi * r0i);
+          const s1i = r1i - (fr * r0i + fi * r0r);
+          const p1 = b11r * b11r + b11i * b11i;
+          if (Math.sqrt(p1) <= pivotFloor) singular = true;
+          const x1r = (s1r * b11r + s1i * b11i) / p1;
+          const x1i = (s1i * b11r - s1r * b11i) / p1;
+          const u0r = r0r - (a01r * x1r - a01i * x1i);
+          const u0i = r0i - (a01r * x1i + a01i * x1r);
+          xr[top * m + j] = (u0r * a00r + u0i * a00i) / p0;
+          xi[top * m + j] = (u0i * a00r - u0r * a00i) / p0;
+          xr[i * m + j] = x1r;
+          xi[i * m + j] = x1i;
+        }
+      }
+      i -= size;
+    }
+    return { value: outputCombination(ct, xr, xi, D, n, m, p), singular };
+  };
+}
+
+/** C̃·X + D for the solved X (n × m, split into real and imaginary parts). */
+function outputCombination(ct: Float64Array, xr: Float64Array, xi: Float64Array, D: Rows, n: number, m: number, p: number): ComplexRows {
+  const re: Rows = [];
+  const im: Rows = [];
+  for (let i = 0; i < p; i++) {
+    const rowRe = new Array<number>(m).fill(0);
+    const rowIm = new Array<number>(m).fill(0);
+    for (let j = 0; j < m; j++) {
+      let sumRe = D[i]?.[j] ?? 0;
+      let sumIm = 0;
+      for (let k = 0; k < n; k++) {
+        sumRe += ct[i * n + k] * xr[k * m + j];
+        sumIm += ct[i * n + k] * xi[k * m + j];
+      }
+      rowRe[j] = sumRe;
+      rowIm[j] = sumIm;
+    }
+    re.push(rowRe);
+    im.push(rowIm);
+  }
+  return { re, im };
+}
+
+/** The Hessenberg route (Laub 1981), used when the Schur form does not converge. */
+export function hessenbergTransferEvaluator(A: Rows, B: Rows, C: Rows, D: Rows): TransferEvaluator {
+  const n = A.length;
+  const m = D[0]?.length ?? B[0]?.length ?? 0;
+  const p = C.length;
   const { H, Q } = hessenbergDecomposition(A);
   const h = new Float64Array(n * n);
   let scale = 0;
@@ -121,25 +263,7 @@ export function transferEvaluator(A: Rows, B: Rows, C: Rows, D: Rows): TransferE
         xi[i * m + j] = (si * dr - sr * di) / d;
       }
     }
-    const re: Rows = [];
-    const im: Rows = [];
-    for (let i = 0; i < p; i++) {
-      const rowRe = new Array<number>(m).fill(0);
-      const rowIm = new Array<number>(m).fill(0);
-      for (let j = 0; j < m; j++) {
-        let sumRe = D[i]?.[j] ?? 0;
-        let sumIm = 0;
-        for (let k = 0; k < n; k++) {
-          sumRe += ct[i * n + k] * xr[k * m + j];
-          sumIm += ct[i * n + k] * xi[k * m + j];
-        }
-        rowRe[j] = sumRe;
-        rowIm[j] = sumIm;
-      }
-      re.push(rowRe);
-      im.push(rowIm);
-    }
-    return { value: { re, im }, singular };
+    return { value: outputCombination(ct, xr, xi, D, n, m, p), singular };
   };
 }
 
