@@ -77,6 +77,18 @@ describe('set-point gains', () => {
     expect(result.closedLoopDcGain).toBeNull();
   });
 
+  it('a pole within rounding of s = 0 makes the DC gain undefined; a small but clear pole does not', async () => {
+    const { steadyStateGain } = await import('../../server/src/control/dcGain');
+    // G = 1/(−a) for the first state: a = −1e−12 is a genuine slow pole (κ = 1e12 < 1/(10·n·ε) ≈ 2e14);
+    // a = −1e−16 is a pole at the DC point to working accuracy.
+    const gainOf = (a: number) => steadyStateGain([[a, 0], [0, -1]], [[1], [1]], [[1, 0]], [[0]], 'continuous');
+    expect(gainOf(-1e-12)![0][0]).toBeCloseTo(1e12, 0);
+    expect(gainOf(-1e-16)).toBeNull();
+    // Discrete: I − A singular at z = 1.
+    expect(steadyStateGain([[1 - 1e-17]], [[1]], [[1]], [[0]], 'discrete')).toBeNull();
+    expect(steadyStateGain([[0.5]], [[1]], [[1]], [[0]], 'discrete')![0][0]).toBeCloseTo(2, 14);
+  });
+
   it('discrete domain uses z = 1: a discrete accumulator plant x[k+1] = x[k] + u, y = x', () => {
     const result = setpointGains([[1]], [[1]], [[1]], [[0]], [0], [[0.5]], 'discrete');
     expect(result.feasibility).toBe('unique');
