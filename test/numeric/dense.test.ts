@@ -1,0 +1,37 @@
+import { describe, expect, it } from 'vitest';
+import { denseFromRows, multiplyDense } from '../../server/src/numeric/dense';
+import { seededMatrix } from './coreTestMatrices';
+
+const EPS = Number.EPSILON;
+
+describe('dense product', () => {
+  it('equals the defining sum Σ_k a_ik·b_kj for every shape parity (blocked loop and its edges)', () => {
+    for (const m of [1, 2, 3, 6, 7]) {
+      for (const inner of [1, 2, 5, 8]) {
+        for (const n of [1, 3, 4]) {
+          const a = seededMatrix(m, inner, 10 * m + inner);
+          const b = seededMatrix(inner, n, 100 + n);
+          // Sparse rows exercise the skipped pairs of zeros.
+          if (m > 2) a[1] = a[1].map((v, k) => (k % 3 === 0 ? v : 0));
+          const product = multiplyDense(denseFromRows(a), denseFromRows(b));
+          expect([product.rows, product.cols]).toEqual([m, n]);
+          for (let i = 0; i < m; i++) {
+            for (let j = 0; j < n; j++) {
+              let sum = 0;
+              let size = 0;
+              for (let k = 0; k < inner; k++) {
+                sum += a[i][k] * b[k][j];
+                size += Math.abs(a[i][k] * b[k][j]);
+              }
+              expect(Math.abs(product.data[i * n + j] - sum)).toBeLessThanOrEqual(2 * inner * EPS * size);
+            }
+          }
+        }
+      }
+    }
+  });
+
+  it('refuses mismatched shapes', () => {
+    expect(() => multiplyDense(denseFromRows([[1, 2]]), denseFromRows([[1, 2]]))).toThrow(/1×2 times 1×2/);
+  });
+});
