@@ -4,7 +4,7 @@
 // and single-precision checks, and the implementation record for export. Every number comes
 // from a pure analysis in this folder; this file only sequences them and attaches source ranges.
 import type { CheckedController, CheckedPlant, Complex, Diagnostic, Range, Rows } from '../model/types';
-import { blockDiagonal, hstack, identity, multiply, scale, vstack, zeros } from '../numeric';
+import { blockDiagonal, denseFromRows, hstack, identity, multiply, realSchurDense, scale, vstack, zeros, type RealSchurDense } from '../numeric';
 import { eigenvaluesOf } from './controlLinearAlgebra';
 import type { StateSpace } from './combinedClosedLoop';
 import { observerController } from './combinedClosedLoop';
@@ -420,10 +420,12 @@ export function designController(
 
   // Margins of the loop as implemented, broken at the plant input.
   const loop = implementedLoop(model, gains.K, augmented, observerInfo, integrated);
-  const margins = loopMargins(loop, model.domain, model.T ?? 1);
+  // One Schur form of the loop serves the margins and the plotted response.
+  const loopSchur = loop.A.length ? realSchurDense(denseFromRows(loop.A)) : undefined;
+  const margins = loopMargins(loop, model.domain, model.T ?? 1, loopSchur);
   report.details.margins = margins;
   out.push(...findings.marginFindings(controller, plant, margins));
-  report.details.frequencyResponse = openLoopFrequencyResponse(model, loop, margins);
+  report.details.frequencyResponse = openLoopFrequencyResponse(model, loop, margins, loopSchur);
 
   // Sampling advice and single-precision check for sampled designs.
   if (model.domain === 'discrete') {
@@ -637,14 +639,14 @@ function implementedLoop(model: DesignModel, K: Rows, augmented: { A: Rows; B: R
 }
 
 /** Open-loop frequency response of the first input's loop (the others open), for the plots. */
-function openLoopFrequencyResponse(model: DesignModel, loop: StateSpace, margins: LoopMarginsResult) {
+function openLoopFrequencyResponse(model: DesignModel, loop: StateSpace, margins: LoopMarginsResult, loopSchur?: RealSchurDense) {
   const low = margins.lowestFrequency;
   const high = model.domain === 'discrete' ? Math.min(margins.highestFrequency, Math.PI / (model.T as number)) : margins.highestFrequency;
   if (!(low > 0 && high > low)) return undefined;
   // At most about 400 points: fewer per decade on wide ranges, never a cut-off high end.
   const perDecade = Math.max(4, Math.min(40, Math.floor(400 / Math.max(1, Math.log10(high / low)))));
   const omega = logarithmicGrid(low, high, perDecade);
-  const response = frequencyResponse(loop.A, loop.B.map((row) => row.slice(0, 1)), loop.C.slice(0, 1), [[loop.D[0]?.[0] ?? 0]], omega, model.domain, model.T ?? undefined);
+  const response = frequencyResponse(loop.A, loop.B.map((row) => row.slice(0, 1)), loop.C.slice(0, 1), [[loop.D[0]?.[0] ?? 0]], omega, model.domain, model.T ?? undefined, loopSchur);
   const channel = response.channels[0];
   if (!channel) return undefined;
   return { omega: response.omegas, magnitudeDb: channel.magnitudeDb, phaseDeg: channel.phaseDeg, brokenAt: 'first plant input, other loops open' };

@@ -7,7 +7,7 @@
 // form A = Q H Qᵀ and an O(n²·m) complex Hessenberg solve with partial pivoting serve instead.
 // Phase is unwrapped along the grid (jumps > 180° removed by ±360°), magnitude in dB.
 import type { Complex, ComplexRows, Rows } from '../numeric/types';
-import { denseFromRows, hessenbergDecomposition, realSchurDense } from '../numeric';
+import { denseFromRows, hessenbergDecomposition, realSchurDense, type RealSchurDense } from '../numeric';
 
 export type TransferEvaluator = (point: Complex) => { value: ComplexRows; singular: boolean };
 
@@ -16,21 +16,24 @@ export type TransferEvaluator = (point: Complex) => { value: ComplexRows; singul
  * function evaluates G(λ). `singular` is set when λ is numerically an eigenvalue of A (a pivot
  * below n·ε·max|T|).
  */
-export function transferEvaluator(A: Rows, B: Rows, C: Rows, D: Rows): TransferEvaluator {
+export function transferEvaluator(A: Rows, B: Rows, C: Rows, D: Rows, schurOfA?: RealSchurDense): TransferEvaluator {
   const n = A.length;
   if (n === 0) {
     return () => ({ value: { re: D.map((row) => row.slice()), im: D.map((row) => row.map(() => 0)) }, singular: false });
   }
-  return schurTransferEvaluator(A, B, C, D) ?? hessenbergTransferEvaluator(A, B, C, D);
+  return schurTransferEvaluator(A, B, C, D, schurOfA) ?? hessenbergTransferEvaluator(A, B, C, D);
 }
 
-/** G(λ) = C̃ (λI − T)⁻¹ B̃ + D with A = Z T Zᵀ, B̃ = Zᵀ B, C̃ = C Z; null when the Schur form fails. */
-export function schurTransferEvaluator(A: Rows, B: Rows, C: Rows, D: Rows): TransferEvaluator | null {
+/**
+ * G(λ) = C̃ (λI − T)⁻¹ B̃ + D with A = Z T Zᵀ, B̃ = Zᵀ B, C̃ = C Z; null when the Schur form fails.
+ * A Schur form of A already at hand (shared by several responses of one loop) may be passed in.
+ */
+export function schurTransferEvaluator(A: Rows, B: Rows, C: Rows, D: Rows, schurOfA?: RealSchurDense): TransferEvaluator | null {
   const n = A.length;
   const m = D[0]?.length ?? B[0]?.length ?? 0;
   const p = C.length;
-  const schur = realSchurDense(denseFromRows(A));
-  if (!schur.converged) return null;
+  const schur = schurOfA ?? realSchurDense(denseFromRows(A));
+  if (!schur.converged || schur.T.rows !== n) return null;
   const t = schur.T.data;
   const z = schur.Z.data;
   let scale = 0;
@@ -310,12 +313,13 @@ export function frequencyResponse(
   omegas: number[],
   domain: 'continuous' | 'discrete',
   T?: number,
+  schurOfA?: RealSchurDense,
 ): FrequencyResponse {
   const p = C.length;
   const m = D[0]?.length ?? B[0]?.length ?? 0;
   const magnitude: number[][][] = Array.from({ length: p }, () => Array.from({ length: m }, () => []));
   const phase: number[][][] = Array.from({ length: p }, () => Array.from({ length: m }, () => []));
-  const evaluate = transferEvaluator(A, B, C, D);
+  const evaluate = transferEvaluator(A, B, C, D, schurOfA);
   for (const omega of omegas) {
     const { value } = evaluate(frequencyPoint(omega, domain, T ?? 1));
     for (let i = 0; i < p; i++) {

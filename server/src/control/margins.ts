@@ -22,7 +22,7 @@
 // is refined by the Illinois method on log ω (at most 60 steps), the sensitivity peak by golden-section
 // search (at most 60 steps).
 import type { Complex, ComplexRows, Rows } from '../numeric/types';
-import { eigenvalues, solveComplexLinear, solveLinear } from '../numeric';
+import { denseFromRows, eigenvalues, realSchurDense, solveComplexLinear, solveLinear, type RealSchurDense } from '../numeric';
 import type { StateSpace } from './combinedClosedLoop';
 import { frequencyPoint, logarithmicGrid, transferEvaluator } from './frequencyResponse';
 import { multiplyRows as multiply } from './controlLinearAlgebra';
@@ -115,8 +115,7 @@ function stableIn(poles: Complex[], domain: 'continuous' | 'discrete'): boolean 
   return poles.every((pole) => (domain === 'continuous' ? pole.re < 0 : Math.hypot(pole.re, pole.im) < 1));
 }
 
-function frequencyGrid(loop: StateSpace, closedPoles: Complex[], domain: 'continuous' | 'discrete', T: number): number[] {
-  const openPoles = eigenvalues(loop.A);
+function frequencyGrid(loop: StateSpace, openPoles: Complex[], closedPoles: Complex[], domain: 'continuous' | 'discrete', T: number): number[] {
   const corners: { frequency: number; damping: number }[] = [];
   for (const pole of [...openPoles, ...closedPoles]) {
     const s = domain === 'continuous' ? pole : { re: Math.log(Math.hypot(pole.re, pole.im)) / T, im: Math.atan2(pole.im, pole.re) / T };
@@ -206,14 +205,20 @@ function goldenMax(f: (omega: number) => number, low: number, high: number): { o
   return fc > fd ? { omega: Math.exp(c), value: fc } : { omega: Math.exp(d), value: fd };
 }
 
-export function loopMargins(loop: StateSpace, domain: 'continuous' | 'discrete', T = 1): LoopMarginsResult {
+/**
+ * Margins of the loop L = C(λI − A)⁻¹B + D. `openLoopSchur`, a real Schur form of loop.A, may be
+ * passed when the caller needs it for other responses too; its diagonal gives the open-loop poles.
+ */
+export function loopMargins(loop: StateSpace, domain: 'continuous' | 'discrete', T = 1, openLoopSchur?: RealSchurDense): LoopMarginsResult {
   const m = loop.D.length;
   const closedPoles = eigenvalues(closedLoopMatrix(loop));
   const closedLoopStable = stableIn(closedPoles, domain);
-  const grid = frequencyGrid(loop, closedPoles, domain, T);
+  const schur = openLoopSchur ?? (loop.A.length ? realSchurDense(denseFromRows(loop.A)) : undefined);
+  const openPoles = schur?.converged ? schur.eigenvalues : eigenvalues(loop.A);
+  const grid = frequencyGrid(loop, openPoles, closedPoles, domain, T);
   const rootEps = Math.sqrt(Number.EPSILON);
 
-  const evaluate = transferEvaluator(loop.A, loop.B, loop.C, loop.D);
+  const evaluate = transferEvaluator(loop.A, loop.B, loop.C, loop.D, schur);
   // One evaluation of the whole m × m loop per frequency, shared by the m loop-at-a-time channels.
   const evaluated = new Map<number, ComplexRows>();
   const matrixAt = (omega: number): ComplexRows => {
