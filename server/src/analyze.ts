@@ -9,6 +9,9 @@ import type { PlantDecl } from '../../grammar/src/ast';
 import type { CheckedDocument, Diagnostic } from './model/types';
 import { resolveSettings, type AnalysisSettings } from './control/settings';
 import { analyzePlant, designController, type PlantReport, type ControllerReport } from './control/design';
+import { runFragility, type DesignContext, type FragilityRequest } from './control/controllerDesign';
+import type { FragilityResult } from './control/fragility';
+import type { CheckedController } from './model/types';
 
 export type { PlantReport, ControllerReport } from './control/design';
 
@@ -53,6 +56,47 @@ export function checkText(text: string): FastCheck {
 export interface SlowOptions {
   /** Called between analyses; returning true abandons the rest (a newer edit arrived). */
   isCancelled?: () => boolean;
+  /**
+   * Another thread analysing the same text (lsp/analysisHelper.ts): it computes the plant
+   * reports and the controllers' fragility studies while this one designs. Its answers are the
+   * same pure functions of the text and settings; a null answer means "compute it here".
+   */
+  helper?: AnalysisHelper;
+}
+
+export interface AnalysisHelper {
+  /** Waits for the plant reports, in model order; null when the helper could not give them. */
+  plantReports(): PlantReport[] | null;
+  /** Hands a controller's fragility study over; the returned function waits for its result. */
+  startFragility(controllerIndex: number, request: FragilityRequest): () => FragilityResult | null;
+}
+
+/** Re-checks a controller's plant with parameters moved, without re-parsing (fragility study). */
+function plantRebuilder(fast: FastCheck, controller: CheckedController): DesignContext['rebuildPlant'] {
+  const declaration = controller.plantIndex === null ? undefined : plantDeclarations(fast)[controller.plantIndex];
+  if (!declaration) return undefined;
+  return (overrides) => {
+    try {
+      return checkPlant(declaration, [], overrides).checked;
+    } catch {
+      return null;
+    }
+  };
+}
+
+/** The helper's side: one plant report (the same record `analyzeFastCheck` computes). */
+export function plantReportsOf(fast: FastCheck, overrides: Partial<AnalysisSettings>): PlantReport[] {
+  const settings = resolveSettings(overrides);
+  return fast.model.plants.map((plant) => analyzePlant(plant, settings));
+}
+
+/** The helper's side: a controller's fragility study on the helper's own parse of the same text. */
+export function fragilityOf(fast: FastCheck, controllerIndex: number, request: FragilityRequest): FragilityResult | null {
+  const controller = fast.model.controllers[controllerIndex];
+  const plant = controller?.plantIndex === null || !controller ? undefined : fast.model.plants[controller.plantIndex];
+  const rebuild = controller ? plantRebuilder(fast, controller) : undefined;
+  if (!controller || !plant || !rebuild) return null;
+  return runFragility(controller, plant, rebuild, request);
 }
 
 function plantDeclarations(fast: FastCheck): PlantDecl[] {
@@ -82,31 +126,30 @@ export function analyzeFastCheck(
       },
     };
   }
-  for (const plant of fast.model.plants) {
-    if (options.isCancelled?.()) return { ...fast, settings, plants, controllers, skipped: { reason: 'cancelled', detail: 'a newer edit arrived' } };
-    const report = analyzePlant(plant, settings);
-    plants.push(report);
-    diagnostics.push(...report.diagnostics);
+  const helper = options.helper;
+  if (!helper) {
+    for (const plant of fast.model.plants) {
+      if (options.isCancelled?.()) return { ...fast, settings, plants, controllers, skipped: { reason: 'cancelled', detail: 'a newer edit arrived' } };
+      plants.push(analyzePlant(plant, settings));
+    }
   }
-  for (const controller of fast.model.controllers) {
+  for (const [index, controller] of fast.model.controllers.entries()) {
     if (options.isCancelled?.()) return { ...fast, settings, plants, controllers, skipped: { reason: 'cancelled', detail: 'a newer edit arrived' } };
     const plant = controller.plantIndex === null ? undefined : fast.model.plants[controller.plantIndex];
-    const declaration = controller.plantIndex === null ? undefined : plantDeclarations(fast)[controller.plantIndex];
     const report = designController(controller, plant, settings, {
       // Fragility: the same plant text re-checked with parameters moved (nothing is re-parsed).
-      rebuildPlant: declaration
-        ? (overrides) => {
-            try {
-              return checkPlant(declaration, [], overrides).checked;
-            } catch {
-              return null;
-            }
-          }
-        : undefined,
+      rebuildPlant: plantRebuilder(fast, controller),
+      startFragility: helper ? (request) => helper.startFragility(index, request) : undefined,
     });
     controllers.push(report);
-    diagnostics.push(...report.diagnostics);
   }
+  if (helper) {
+    const reports = helper.plantReports();
+    for (const [index, plant] of fast.model.plants.entries()) plants.push(reports?.[index] ?? analyzePlant(plant, settings));
+  }
+  // Plant findings first, then controller findings, as the single-thread order gives them.
+  for (const report of plants) diagnostics.push(...report.diagnostics);
+  for (const report of controllers) diagnostics.push(...report.diagnostics);
   diagnostics.sort(byPosition);
   return { ...fast, diagnostics, settings, plants, controllers };
 }

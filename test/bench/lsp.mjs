@@ -2,6 +2,7 @@
 //   - didChange → publishDiagnostics of the fast checks, and → the full analysis
 //     (loopwright/analysisUpdated), median and 95th percentile over 200 edits, debounce 0,
 //     for generated 10- and 100-state models;
+//   - the largest model again in alternating blocks with and without the analysis helper thread;
 //   - hover latency while a 200-state model analyses (median).
 // `--soak N` instead replays N seeded random edits (default 10,000) with requests in between
 // and reports whether the server stayed up and answered everything.
@@ -25,8 +26,8 @@ const option = (name, fallback) => {
   return index >= 0 && args[index + 1] !== undefined ? Number(args[index + 1]) : fallback;
 };
 
-function startSession(settings) {
-  const child = spawn(process.execPath, [serverBundle, '--stdio'], { cwd: root, stdio: ['pipe', 'pipe', 'pipe'] });
+function startSession(settings, env = {}) {
+  const child = spawn(process.execPath, [serverBundle, '--stdio'], { cwd: root, stdio: ['pipe', 'pipe', 'pipe'], env: { ...process.env, ...env } });
   const connection = rpc.createMessageConnection(new rpc.StreamMessageReader(child.stdout), new rpc.StreamMessageWriter(child.stdin));
   const listeners = new Set();
   const emit = (event) => listeners.forEach((listener) => listener(event));
@@ -119,8 +120,8 @@ const percentile = (values, p) => {
 };
 const ms = (value) => (Number.isFinite(value) ? value.toFixed(1) : '—');
 
-async function measureEdits(n, edits) {
-  const session = startSession({ debounceMs: 0 });
+async function measureEdits(n, edits, env = {}, firstEdit = 0) {
+  const session = startSession({ debounceMs: 0 }, env);
   await session.initialize();
   const uri = `file:///bench/rod${n}.plant`;
   const text = ladderModel(n);
@@ -133,7 +134,7 @@ async function measureEdits(n, edits) {
   for (let i = 0; i < edits; i++) {
     const version = i + 2;
     // 0.5001, 0.5002, …: every edit is a text the server has not seen (nothing can be reused).
-    const value = (0.5 + (i + 1) / 10000).toFixed(4);
+    const value = (0.5 + (firstEdit + i + 1) / 10000).toFixed(4);
     const fastEvent = session.waitFor((e) => e.kind === 'diagnostics' && e.uri === uri && e.version === version);
     const fullEvent = session.waitFor((e) => e.kind === 'analysed' && e.uri === uri && e.version === version);
     const start = performance.now();
@@ -269,10 +270,26 @@ if (args.includes('--soak')) {
     const { fast, full } = await measureEdits(n, edits);
     rows.push([`${n} states`, ms(percentile(fast, 50)), ms(percentile(fast, 95)), ms(percentile(full, 50)), ms(percentile(full, 95))]);
   }
+  // The analysis helper thread on and off, side by side: blocks of 50 edits alternate between a
+  // server with the helper and one without (LOOPWRIGHT_ANALYSIS_THREADS=1), so machine load
+  // falls on both alike.
+  const largest = Math.max(...sizes);
+  const withHelper = [];
+  const withoutHelper = [];
+  for (let block = 0; block < Math.ceil(edits / 50); block++) {
+    withHelper.push(...(await measureEdits(largest, 50, {}, 1000 + block * 50)).full);
+    withoutHelper.push(...(await measureEdits(largest, 50, { LOOPWRIGHT_ANALYSIS_THREADS: '1' }, 1000 + block * 50)).full);
+  }
   const hover = await measureHoverDuringAnalysis(200, option('--hovers', 50));
   console.log(`didChange → diagnostics, debounce 0, ${edits} edits (milliseconds)`);
   console.log('model       fast p50  fast p95  full p50  full p95');
   for (const row of rows) console.log(`${row[0].padEnd(10)}  ${row.slice(1).map((cell) => cell.padStart(8)).join('  ')}`);
+  const helperMedian = percentile(withHelper, 50);
+  const singleMedian = percentile(withoutHelper, 50);
+  console.log(
+    `${largest} states, alternating blocks: full p50 ${ms(helperMedian)} ms with the helper thread, ${ms(singleMedian)} ms with one analysis thread` +
+      ` (ratio ${(helperMedian / singleMedian).toFixed(2)}; ${withHelper.length} edits each)`,
+  );
   console.log(
     `hover while a 200-state model analyses: median ${ms(percentile(hover.latencies, 50))} ms, p95 ${ms(percentile(hover.latencies, 95))} ms over ${hover.during} hovers` +
       ` (its full analysis: median ${ms(percentile(hover.analyses, 50))} ms over ${hover.analyses.length} edits)`,

@@ -13,7 +13,7 @@ import { designDiagnostics as findings } from './diagnostics/designFindings';
 import { discretiseZeroOrderHold, mapPolesToContinuous, mapPolesToDiscrete, sampledCostWeights } from './discretise';
 import { float32ClosedLoopCheck } from './float32Check';
 import { bandwidth, frequencyResponse, logarithmicGrid } from './frequencyResponse';
-import { analyzeFragility, type PlantMatrices } from './fragility';
+import { analyzeFragility, type FragilityInput, type FragilityResult, type PlantMatrices } from './fragility';
 import { disturbanceRejection } from './disturbanceRejection';
 import { integralActionFeasibility } from './integralAction';
 import { steadyStateKalmanGain } from './kalman';
@@ -33,6 +33,33 @@ import { singularValuesOf } from './controlLinearAlgebra';
 export interface DesignContext {
   /** Re-checks the plant with parameter overrides (for the fragility study); null when that fails. */
   rebuildPlant?: (overrides: Record<string, number>) => CheckedPlant | null;
+  /**
+   * Starts the fragility study elsewhere (another thread holding the same document) as soon as
+   * the gains and prescaler are known, and returns a function that waits for its result (null:
+   * it failed there, so it runs here). Without it the study runs here. Either way the result is
+   * the same pure function of the request.
+   */
+  startFragility?: (request: FragilityRequest) => () => FragilityResult | null;
+}
+
+/** Everything the fragility study needs besides the plant rebuild: plain data, cloneable. */
+export type FragilityRequest = Omit<FragilityInput, 'rebuild'>;
+
+/** The fragility study of a controller on its plant, re-checking the plant with parameters moved. */
+export function runFragility(
+  controller: CheckedController,
+  plant: CheckedPlant,
+  rebuildPlant: NonNullable<DesignContext['rebuildPlant']>,
+  request: FragilityRequest,
+): FragilityResult {
+  const names = plant.parameters.map((parameter) => parameter.name);
+  const rebuild = (values: number[]): PlantMatrices | null => {
+    const perturbed = rebuildPlant(Object.fromEntries(names.map((name, i) => [name, values[i]])));
+    if (!perturbed || !perturbed.usable) return null;
+    const perturbedModel = buildDesignModel(perturbed, controller);
+    return { A: perturbedModel.A, B: perturbedModel.B, C: perturbedModel.C, D: perturbedModel.D, E: perturbedModel.E };
+  };
+  return analyzeFragility({ rebuild, ...request });
 }
 
 /** The matrices the gains are computed for (continuous plant, or its sampled model). */
@@ -359,6 +386,24 @@ export function designController(
     report.dcGain = setpoint.dcGainDefined ? setpoint.closedLoopDcGain : null;
   }
 
+  // The fragility study needs only the gains and the prescaler: start it now where it can run
+  // alongside the rest of the design (its verdict joins the diagnostics at the end, as always).
+  const fragilityRequest: FragilityRequest | null =
+    tracked.length && report.prescaler && context.rebuildPlant
+      ? {
+          nominal: plant.parameters.map((parameter) => parameter.value),
+          K: Kx,
+          N: report.prescaler,
+          trackedOutputs: tracked,
+          percent: settings.parameterErrorPercent,
+          domain: model.domain,
+          samplePeriod: model.T ?? undefined,
+          integral: integrated.length ? { Kx, Ki, outputs: integrated } : undefined,
+          ...fragilityBoxBudget(nd + integrated.length, settings),
+        }
+      : null;
+  const pendingFragility = fragilityRequest && context.startFragility ? context.startFragility(fragilityRequest) : null;
+
   // Observer (estimator) and the full-state warning.
   const observerInfo = designEstimator(controller, plant, model, gains.closedLoopPoles, settings, out);
   if (observerInfo) report.details.observer = observerInfo.details;
@@ -457,27 +502,9 @@ export function designController(
   // Fragility of the tracking design under parameter error, and disturbance rejection.
   if (tracked.length && report.prescaler) {
     const integral = integrated.length ? { Kx, Ki, outputs: integrated } : undefined;
-    if (context.rebuildPlant) {
-      const rebuildPlant = context.rebuildPlant;
+    if (context.rebuildPlant && fragilityRequest) {
       const names = plant.parameters.map((parameter) => parameter.name);
-      const rebuild = (values: number[]): PlantMatrices | null => {
-        const perturbed = rebuildPlant(Object.fromEntries(names.map((name, i) => [name, values[i]])));
-        if (!perturbed || !perturbed.usable) return null;
-        const perturbedModel = buildDesignModel(perturbed, controller);
-        return { A: perturbedModel.A, B: perturbedModel.B, C: perturbedModel.C, D: perturbedModel.D, E: perturbedModel.E };
-      };
-      const fragility = analyzeFragility({
-        rebuild,
-        nominal: plant.parameters.map((parameter) => parameter.value),
-        K: Kx,
-        N: report.prescaler,
-        trackedOutputs: tracked,
-        percent: settings.parameterErrorPercent,
-        domain: model.domain,
-        samplePeriod: model.T ?? undefined,
-        integral,
-        ...fragilityBoxBudget(nd + integrated.length, settings),
-      });
+      const fragility = pendingFragility?.() ?? runFragility(controller, plant, context.rebuildPlant, fragilityRequest);
       report.details.fragility = { ...fragility, parameterNames: [...names, 'B (input gain)'] };
       // Integral action on the tracked outputs is feasible exactly when the set-point equations
       // have full rank (no zero at DC, q ≤ m — already decided above) and the pair is stabilisable

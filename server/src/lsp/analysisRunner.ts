@@ -2,8 +2,13 @@
 // A newer version of the document being analysed terminates the worker (the cheapest and
 // surest cancellation: the engine need not poll) and a fresh worker starts at once.
 // Without the bundled worker file (tests running the sources) the analysis runs in-process.
+// On a machine with more than one core a helper thread runs beside the worker and takes the
+// plant reports and fragility studies (analysisHelper.ts); LOOPWRIGHT_ANALYSIS_THREADS=1 turns
+// it off (for side-by-side measurement). Worker and helper start, and are stopped, together.
 import { existsSync } from 'node:fs';
-import { Worker } from 'node:worker_threads';
+import { availableParallelism } from 'node:os';
+import { MessageChannel, Worker } from 'node:worker_threads';
+import { ANSWERS_POSTED, HELPER_GONE } from './analysisHelper';
 import type { AnalysisSettings } from '../control/settings';
 import { runSlowAnalysis, type AnalysisJob, type AnalysisReply, type SlowResult } from './slowAnalysis';
 
@@ -16,6 +21,7 @@ interface Pending {
 
 export class AnalysisRunner {
   private worker: Worker | null = null;
+  private helper: Worker | null = null;
   private running: Pending | null = null;
   private readonly queue = new Map<string, Pending>();
   private nextJob = 1;
@@ -109,8 +115,32 @@ export class AnalysisRunner {
     if (this.worker) return this.worker;
     // The analyses allocate many short-lived rows; a larger young generation means fewer
     // scavenges (about 10 % off a 100-state analysis, measured with test/bench/lsp.mjs).
-    const worker = new Worker(this.workerPath!, { resourceLimits: { maxYoungGenerationSizeMb: 64 } });
-    worker.on('message', (reply: AnalysisReply) => {
+    const resourceLimits = { maxYoungGenerationSizeMb: 64 };
+    const worker = new Worker(this.workerPath!, { resourceLimits });
+    if (availableParallelism() > 1 && process.env.LOOPWRIGHT_ANALYSIS_THREADS !== '1') {
+      // A second thread takes the plant reports and fragility studies (analysisHelper.ts).
+      const helper = new Worker(this.workerPath!, { resourceLimits, workerData: { role: 'helper' } });
+      const channel = new MessageChannel();
+      const cells = new SharedArrayBuffer(8);
+      const gone = () => {
+        const view = new Int32Array(cells);
+        Atomics.store(view, HELPER_GONE, 1);
+        Atomics.notify(view, ANSWERS_POSTED);
+      };
+      helper.on('message', (message: { kind?: string; message?: string }) => {
+        if (message?.kind === 'log' && message.message) this.log(message.message);
+      });
+      helper.on('error', (error) => this.log(`analysis helper failed: ${error.stack ?? error.message}`));
+      helper.on('exit', gone);
+      helper.postMessage({ kind: 'link', port: channel.port2, cells }, [channel.port2]);
+      worker.postMessage({ kind: 'link', port: channel.port1, cells }, [channel.port1]);
+      this.helper = helper;
+    }
+    worker.on('message', (reply: AnalysisReply | { kind: 'log'; message: string }) => {
+      if ('kind' in reply) {
+        if (reply.kind === 'log') this.log(reply.message);
+        return;
+      }
       const pending = this.running;
       if (!pending || pending.job.job !== reply.job) return;
       this.finish(pending, 'result' in reply ? { result: reply.result } : { error: reply.error });
@@ -121,6 +151,9 @@ export class AnalysisRunner {
     worker.on('exit', (code) => {
       if (this.worker !== worker) return; // terminated on purpose
       this.worker = null;
+      const helper = this.helper;
+      this.helper = null;
+      if (helper) void helper.terminate(); // the next job starts a fresh pair
       const pending = this.running;
       if (pending) this.finish(pending, { error: `analysis worker stopped (exit code ${code})` });
     });
@@ -130,7 +163,10 @@ export class AnalysisRunner {
 
   private stopWorker(): void {
     const worker = this.worker;
+    const helper = this.helper;
     this.worker = null;
+    this.helper = null;
     if (worker) void worker.terminate();
+    if (helper) void helper.terminate();
   }
 }

@@ -1,7 +1,7 @@
 // The slow part of one document version, as a structured-clone-safe record: what the worker
 // thread posts back (the main thread already holds the syntax tree and checked model of that
 // version, so only diagnostics and reports travel).
-import { analyzeFastCheck, checkText } from '../analyze';
+import { analyzeFastCheck, checkText, type AnalysisHelper } from '../analyze';
 import type { AnalysisSettings } from '../control/settings';
 import type { ControllerReport, PlantReport } from '../control/design';
 import type { Diagnostic } from '../model/types';
@@ -29,9 +29,14 @@ export type AnalysisReply =
   | { job: number; uri: string; version: number; result: SlowResult }
   | { job: number; uri: string; version: number; error: string };
 
-export function runSlowAnalysis(text: string, settings: Partial<AnalysisSettings>, isCancelled?: () => boolean): SlowResult {
+export function runSlowAnalysis(
+  text: string,
+  settings: Partial<AnalysisSettings>,
+  isCancelled?: () => boolean,
+  helper?: AnalysisHelper,
+): SlowResult {
   const fast = checkText(text);
-  const analysis = analyzeFastCheck(fast, settings, { isCancelled });
+  const analysis = analyzeFastCheck(fast, settings, { isCancelled, helper });
   const fastSet = new Set(fast.diagnostics);
   const result: SlowResult = {
     diagnostics: analysis.diagnostics,

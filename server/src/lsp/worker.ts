@@ -1,20 +1,43 @@
 // Analysis worker (bundled as dist/worker.cjs): runs the slow analyses of one document version
 // off the server's main thread, so hovers and completions answer while a large model analyses.
 // The server terminates this thread when a newer edit makes the running job pointless.
-import { parentPort } from 'node:worker_threads';
+// The same file runs as the analysis helper (workerData.role === 'helper', analysisHelper.ts):
+// the server links the two threads with a MessageChannel and two shared cells.
+import { type MessagePort, parentPort, workerData } from 'node:worker_threads';
+import { helperForJob, serveAsHelper } from './analysisHelper';
 import { cloneable, runSlowAnalysis, type AnalysisJob, type AnalysisReply } from './slowAnalysis';
 
-parentPort?.on('message', (job: AnalysisJob) => {
-  let reply: AnalysisReply;
-  try {
-    reply = { job: job.job, uri: job.uri, version: job.version, result: runSlowAnalysis(job.text, job.settings) };
-  } catch (error) {
-    reply = { job: job.job, uri: job.uri, version: job.version, error: error instanceof Error ? error.stack ?? error.message : String(error) };
-  }
-  try {
-    parentPort!.postMessage(reply);
-  } catch {
-    // A report held something structured clone refuses (a function): send a plain copy.
-    parentPort!.postMessage(cloneable(reply));
-  }
-});
+/** First message from the server when a helper thread is running beside this worker. */
+export interface HelperLinkMessage {
+  kind: 'link';
+  port: MessagePort;
+  cells: SharedArrayBuffer;
+}
+
+const log = (message: string) => parentPort?.postMessage({ kind: 'log', message });
+
+if ((workerData as { role?: string } | null)?.role === 'helper') {
+  parentPort?.once('message', (link: HelperLinkMessage) => serveAsHelper(link.port, new Int32Array(link.cells), log));
+} else {
+  let helper: { port: MessagePort; cells: Int32Array } | null = null;
+  parentPort?.on('message', (message: AnalysisJob | HelperLinkMessage) => {
+    if ('kind' in message && message.kind === 'link') {
+      helper = { port: message.port, cells: new Int32Array(message.cells) };
+      return;
+    }
+    const job = message as AnalysisJob;
+    let reply: AnalysisReply;
+    try {
+      const link = helper ? helperForJob(helper.port, helper.cells, job.job, job.text, job.settings) : undefined;
+      reply = { job: job.job, uri: job.uri, version: job.version, result: runSlowAnalysis(job.text, job.settings, undefined, link) };
+    } catch (error) {
+      reply = { job: job.job, uri: job.uri, version: job.version, error: error instanceof Error ? error.stack ?? error.message : String(error) };
+    }
+    try {
+      parentPort!.postMessage(reply);
+    } catch {
+      // A report held something structured clone refuses (a function): send a plain copy.
+      parentPort!.postMessage(cloneable(reply));
+    }
+  });
+}

@@ -1,0 +1,121 @@
+// The second analysis thread. The machine has more than one core, and one document's slow
+// analysis splits cleanly: the plant reports need only the text, and a controller's fragility
+// study (a dozen eigenvalue problems of the perturbed loop) needs only the text plus the gains
+// and prescaler. So the analysis worker (the coordinator) designs the controllers while this
+// helper, holding its own parse of the same text, computes the plant reports and, as each
+// controller's gains arrive, its fragility study. Answers are the same pure functions of the
+// text and settings as in one thread; the coordinator computes anything the helper cannot give.
+//
+// The coordinator waits synchronously (its analysis is one synchronous call): the helper posts
+// each answer on a MessagePort and then bumps a shared counter that the coordinator sleeps on
+// with Atomics.wait, reading the port with receiveMessageOnPort. A second shared cell says the
+// helper is gone (set by the server when the helper thread exits), so nobody waits for a dead thread.
+import { type MessagePort, receiveMessageOnPort } from 'node:worker_threads';
+import { checkText, fragilityOf, plantReportsOf, type AnalysisHelper, type FastCheck } from '../analyze';
+import type { FragilityRequest } from '../control/controllerDesign';
+import type { FragilityResult } from '../control/fragility';
+import type { PlantReport } from '../control/design';
+import type { AnalysisSettings } from '../control/settings';
+import { cloneable } from './slowAnalysis';
+
+/** Shared cells (Int32Array over a SharedArrayBuffer of 8 bytes). */
+export const ANSWERS_POSTED = 0;
+export const HELPER_GONE = 1;
+
+export type ToHelper =
+  | { kind: 'start'; job: number; text: string; settings: Partial<AnalysisSettings> }
+  | { kind: 'fragility'; job: number; controllerIndex: number; request: FragilityRequest };
+
+export type FromHelper =
+  | { kind: 'plants'; job: number; reports: PlantReport[] | null }
+  | { kind: 'fragility'; job: number; controllerIndex: number; result: FragilityResult | null };
+
+/** The helper thread's loop: answers every request of the current job, in order. */
+export function serveAsHelper(port: MessagePort, cells: Int32Array, log: (message: string) => void): void {
+  let current: { job: number; fast: FastCheck } | null = null;
+  const answer = (message: FromHelper): void => {
+    try {
+      port.postMessage(message);
+    } catch {
+      port.postMessage(cloneable(message)); // a report held something structured clone refuses
+    }
+    Atomics.add(cells, ANSWERS_POSTED, 1);
+    Atomics.notify(cells, ANSWERS_POSTED);
+  };
+  port.on('message', (message: ToHelper) => {
+    if (message.kind === 'start') {
+      let reports: PlantReport[] | null = null;
+      try {
+        const fast = checkText(message.text);
+        current = { job: message.job, fast };
+        reports = plantReportsOf(fast, message.settings);
+      } catch (error) {
+        log(`analysis helper: plant reports failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
+      }
+      answer({ kind: 'plants', job: message.job, reports });
+      return;
+    }
+    let result: FragilityResult | null = null;
+    try {
+      if (current?.job === message.job) result = fragilityOf(current.fast, message.controllerIndex, message.request);
+    } catch (error) {
+      log(`analysis helper: fragility failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
+    }
+    answer({ kind: 'fragility', job: message.job, controllerIndex: message.controllerIndex, result });
+  });
+}
+
+/**
+ * How long the coordinator waits for one answer before computing it itself. The helper does
+ * no more work than the coordinator would, so this bound only matters if the helper is stuck.
+ */
+const PATIENCE_MS = 60_000;
+
+/** The coordinator's side for one job: starts the helper on the text and waits for its answers. */
+export function helperForJob(
+  port: MessagePort,
+  cells: Int32Array,
+  job: number,
+  text: string,
+  settings: Partial<AnalysisSettings>,
+): AnalysisHelper {
+  const mailbox: FromHelper[] = [];
+  const waitFor = <T extends FromHelper>(matches: (message: FromHelper) => message is T): T | null => {
+    const deadline = Date.now() + PATIENCE_MS;
+    for (;;) {
+      const posted = Atomics.load(cells, ANSWERS_POSTED);
+      for (let received = receiveMessageOnPort(port); received; received = receiveMessageOnPort(port)) {
+        const message = received.message as FromHelper;
+        if (message.job === job) mailbox.push(message); // answers to an abandoned job are dropped
+      }
+      const index = mailbox.findIndex(matches);
+      if (index >= 0) return mailbox.splice(index, 1)[0] as T;
+      if (Atomics.load(cells, HELPER_GONE) !== 0) return null;
+      const left = deadline - Date.now();
+      if (left <= 0) return null;
+      Atomics.wait(cells, ANSWERS_POSTED, posted, Math.min(left, 1000));
+    }
+  };
+  const send = (message: ToHelper): boolean => {
+    if (Atomics.load(cells, HELPER_GONE) !== 0) return false;
+    port.postMessage(message);
+    return true;
+  };
+  const started = send({ kind: 'start', job, text, settings });
+  return {
+    plantReports: () => {
+      if (!started) return null;
+      return waitFor((message): message is Extract<FromHelper, { kind: 'plants' }> => message.kind === 'plants')?.reports ?? null;
+    },
+    startFragility: (controllerIndex, request) => {
+      const sent = started && send({ kind: 'fragility', job, controllerIndex, request });
+      return () =>
+        sent
+          ? (waitFor(
+              (message): message is Extract<FromHelper, { kind: 'fragility' }> =>
+                message.kind === 'fragility' && message.controllerIndex === controllerIndex,
+            )?.result ?? null)
+          : null;
+    },
+  };
+}

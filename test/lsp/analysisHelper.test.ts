@@ -1,0 +1,113 @@
+// The two-thread analysis (lsp/analysisHelper.ts) gives exactly the one-thread result: first the
+// split itself (plant reports and fragility studies computed from a separate parse, merged back
+// in order), then the real threads (the bundled worker as coordinator and as helper, linked as
+// the server links them), including a helper that is gone before the job starts.
+import { readdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { MessageChannel, Worker } from 'node:worker_threads';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { analyzeFastCheck, checkText, fragilityOf, plantReportsOf, type AnalysisHelper } from '../../server/src/analyze';
+import { ANSWERS_POSTED, HELPER_GONE } from '../../server/src/lsp/analysisHelper';
+import { cloneable, runSlowAnalysis, type AnalysisReply } from '../../server/src/lsp/slowAnalysis';
+import { ensureBuilt, root } from './lspClient';
+
+const samples = readdirSync(join(root, 'samples')).filter((name) => name.endsWith('.plant'));
+const sampleText = (name: string) => readFileSync(join(root, 'samples', name), 'utf8');
+
+describe('analysis split across a helper (same thread)', () => {
+  it.each(samples)('%s: equals the single-thread analysis, and the helper answered', (sample) => {
+    const text = sampleText(sample);
+    const single = analyzeFastCheck(checkText(text));
+    const helperParse = checkText(text); // the helper's own parse of the same text
+    let answered = 0;
+    const helper: AnalysisHelper = {
+      plantReports: () => {
+        answered++;
+        return plantReportsOf(helperParse, {});
+      },
+      startFragility: (controllerIndex, request) => {
+        const result = fragilityOf(helperParse, controllerIndex, request);
+        return () => {
+          if (result) answered++;
+          return result;
+        };
+      },
+    };
+    const split = analyzeFastCheck(checkText(text), {}, { helper });
+    expect(answered).toBeGreaterThan(0);
+    expect(cloneable(split.diagnostics)).toEqual(cloneable(single.diagnostics));
+    expect(cloneable(split.plants)).toEqual(cloneable(single.plants));
+    expect(cloneable(split.controllers)).toEqual(cloneable(single.controllers));
+  });
+
+  it('a helper that cannot answer (null) leaves the work to the coordinator', () => {
+    const text = sampleText('dosing-tank.plant');
+    const single = analyzeFastCheck(checkText(text));
+    const silent: AnalysisHelper = { plantReports: () => null, startFragility: () => () => null };
+    const split = analyzeFastCheck(checkText(text), {}, { helper: silent });
+    expect(cloneable(split.diagnostics)).toEqual(cloneable(single.diagnostics));
+    expect(cloneable(split.controllers)).toEqual(cloneable(single.controllers));
+    expect(split.diagnostics.map((d) => d.code)).toContain('control/fragile-prescaler');
+  });
+});
+
+describe('analysis helper thread', () => {
+  const workerPath = join(root, 'dist', 'worker.cjs');
+  let coordinator: Worker;
+  let helper: Worker;
+  let cells: Int32Array;
+  let nextJob = 1;
+
+  beforeAll(() => {
+    ensureBuilt();
+    coordinator = new Worker(workerPath);
+    helper = new Worker(workerPath, { workerData: { role: 'helper' } });
+    const channel = new MessageChannel();
+    const shared = new SharedArrayBuffer(8);
+    cells = new Int32Array(shared);
+    helper.postMessage({ kind: 'link', port: channel.port2, cells: shared }, [channel.port2]);
+    coordinator.postMessage({ kind: 'link', port: channel.port1, cells: shared }, [channel.port1]);
+  });
+
+  afterAll(async () => {
+    await coordinator?.terminate();
+    await helper?.terminate();
+  });
+
+  const analyseInThreads = (text: string): Promise<AnalysisReply> =>
+    new Promise((resolve) => {
+      const job = nextJob++;
+      const listener = (reply: AnalysisReply) => {
+        if (reply.job !== job) return;
+        coordinator.off('message', listener);
+        resolve(reply);
+      };
+      coordinator.on('message', listener);
+      coordinator.postMessage({ job, uri: 'file:///x.plant', version: 1, text, settings: {} });
+    });
+
+  it.each(samples)('%s: the linked threads return the in-process result', async (sample) => {
+    const text = sampleText(sample);
+    const posted = Atomics.load(cells, ANSWERS_POSTED);
+    const reply = await analyseInThreads(text);
+    expect('result' in reply, 'error' in reply ? reply.error : '').toBe(true);
+    if (!('result' in reply)) return;
+    // The helper answered this job (plant reports at least), and the answers were used unchanged.
+    expect(Atomics.load(cells, ANSWERS_POSTED)).toBeGreaterThan(posted);
+    const local = cloneable(runSlowAnalysis(text, {}));
+    expect(cloneable(reply.result.diagnostics)).toEqual(local.diagnostics);
+    expect(cloneable(reply.result.plants)).toEqual(local.plants);
+    expect(cloneable(reply.result.controllers)).toEqual(local.controllers);
+  });
+
+  it('when the helper is gone the coordinator does its work and answers the same', async () => {
+    await helper.terminate();
+    Atomics.store(cells, HELPER_GONE, 1); // what the server does on the helper's exit
+    Atomics.notify(cells, ANSWERS_POSTED);
+    const text = sampleText('dosing-tank.plant');
+    const reply = await analyseInThreads(text);
+    expect('result' in reply).toBe(true);
+    if (!('result' in reply)) return;
+    expect(cloneable(reply.result.diagnostics)).toEqual(cloneable(runSlowAnalysis(text, {}).diagnostics));
+  });
+});
