@@ -7,7 +7,7 @@ import { join } from 'node:path';
 import { MessageChannel, Worker } from 'node:worker_threads';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { analyzeFastCheck, checkText, fragilityOf, plantReportsOf, type AnalysisHelper } from '../../server/src/analyze';
-import { ANSWERS_POSTED, HELPER_GONE } from '../../server/src/lsp/analysisHelper';
+import { ANSWERS_POSTED, HELPER_BUSY, HELPER_CELLS, HELPER_GONE } from '../../server/src/lsp/analysisHelper';
 import { cloneable, runSlowAnalysis, type AnalysisReply } from '../../server/src/lsp/slowAnalysis';
 import { ensureBuilt, root } from './lspClient';
 
@@ -58,15 +58,20 @@ describe('analysis helper thread', () => {
   let cells: Int32Array;
   let nextJob = 1;
 
-  beforeAll(() => {
-    ensureBuilt();
+  // As the server does: a fresh channel and fresh cells for every (new) coordinator.
+  const linkNewCoordinator = () => {
     coordinator = new Worker(workerPath);
-    helper = new Worker(workerPath, { workerData: { role: 'helper' } });
     const channel = new MessageChannel();
-    const shared = new SharedArrayBuffer(8);
+    const shared = new SharedArrayBuffer(HELPER_CELLS * 4);
     cells = new Int32Array(shared);
     helper.postMessage({ kind: 'link', port: channel.port2, cells: shared }, [channel.port2]);
     coordinator.postMessage({ kind: 'link', port: channel.port1, cells: shared }, [channel.port1]);
+  };
+
+  beforeAll(() => {
+    ensureBuilt();
+    helper = new Worker(workerPath, { workerData: { role: 'helper' } });
+    linkNewCoordinator();
   });
 
   afterAll(async () => {
@@ -98,6 +103,18 @@ describe('analysis helper thread', () => {
     expect(cloneable(reply.result.diagnostics)).toEqual(local.diagnostics);
     expect(cloneable(reply.result.plants)).toEqual(local.plants);
     expect(cloneable(reply.result.controllers)).toEqual(local.controllers);
+  });
+
+  it('an idle helper kept after its coordinator is stopped serves the next one (a cancelled edit)', async () => {
+    await coordinator.terminate();
+    expect(Atomics.load(cells, HELPER_BUSY)).toBe(0);
+    linkNewCoordinator();
+    const text = sampleText('conveyor.plant');
+    const reply = await analyseInThreads(text);
+    expect('result' in reply).toBe(true);
+    if (!('result' in reply)) return;
+    expect(Atomics.load(cells, ANSWERS_POSTED)).toBeGreaterThan(0);
+    expect(cloneable(reply.result.controllers)).toEqual(cloneable(runSlowAnalysis(text, {}).controllers));
   });
 
   it('when the helper is gone the coordinator does its work and answers the same', async () => {

@@ -18,9 +18,12 @@ import type { PlantReport } from '../control/design';
 import type { AnalysisSettings } from '../control/settings';
 import { cloneable } from './slowAnalysis';
 
-/** Shared cells (Int32Array over a SharedArrayBuffer of 8 bytes). */
+/** Shared cells (an Int32Array of HELPER_CELLS entries over a SharedArrayBuffer), one set per link. */
 export const ANSWERS_POSTED = 0;
 export const HELPER_GONE = 1;
+/** 1 while the helper computes for this link (the server stops a busy helper on cancellation). */
+export const HELPER_BUSY = 2;
+export const HELPER_CELLS = 3;
 
 export type ToHelper =
   | { kind: 'start'; job: number; text: string; settings: Partial<AnalysisSettings> }
@@ -30,8 +33,11 @@ export type FromHelper =
   | { kind: 'plants'; job: number; reports: PlantReport[] | null }
   | { kind: 'fragility'; job: number; controllerIndex: number; result: FragilityResult | null };
 
-/** The helper thread's loop: answers every request of the current job, in order. */
-export function serveAsHelper(port: MessagePort, cells: Int32Array, log: (message: string) => void): void {
+/**
+ * The helper thread's side of one link: answers every request of the current job, in order.
+ * Returns a function that ends the link (the server links each new worker afresh).
+ */
+export function serveAsHelper(port: MessagePort, cells: Int32Array, log: (message: string) => void): () => void {
   let current: { job: number; fast: FastCheck } | null = null;
   const answer = (message: FromHelper): void => {
     try {
@@ -42,7 +48,7 @@ export function serveAsHelper(port: MessagePort, cells: Int32Array, log: (messag
     Atomics.add(cells, ANSWERS_POSTED, 1);
     Atomics.notify(cells, ANSWERS_POSTED);
   };
-  port.on('message', (message: ToHelper) => {
+  const serve = (message: ToHelper): void => {
     if (message.kind === 'start') {
       let reports: PlantReport[] | null = null;
       try {
@@ -62,7 +68,16 @@ export function serveAsHelper(port: MessagePort, cells: Int32Array, log: (messag
       log(`analysis helper: fragility failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
     }
     answer({ kind: 'fragility', job: message.job, controllerIndex: message.controllerIndex, result });
+  };
+  port.on('message', (message: ToHelper) => {
+    Atomics.store(cells, HELPER_BUSY, 1);
+    try {
+      serve(message);
+    } finally {
+      Atomics.store(cells, HELPER_BUSY, 0);
+    }
   });
+  return () => port.close();
 }
 
 /**

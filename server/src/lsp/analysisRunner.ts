@@ -4,13 +4,18 @@
 // Without the bundled worker file (tests running the sources) the analysis runs in-process.
 // On a machine with more than one core a helper thread runs beside the worker and takes the
 // plant reports and fragility studies (analysisHelper.ts); LOOPWRIGHT_ANALYSIS_THREADS=1 turns
-// it off (for side-by-side measurement). Worker and helper start, and are stopped, together.
+// it off (for side-by-side measurement). A cancelled worker is always stopped; the helper only
+// when it is still busy with the abandoned job.
 import { existsSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { MessageChannel, Worker } from 'node:worker_threads';
-import { ANSWERS_POSTED, HELPER_GONE } from './analysisHelper';
+import { ANSWERS_POSTED, HELPER_BUSY, HELPER_CELLS, HELPER_GONE } from './analysisHelper';
 import type { AnalysisSettings } from '../control/settings';
 import { runSlowAnalysis, type AnalysisJob, type AnalysisReply, type SlowResult } from './slowAnalysis';
+
+// The analyses allocate many short-lived rows; a larger young generation means fewer scavenges
+// (about 10 % off a 100-state analysis, measured with test/bench/lsp.mjs).
+const WORKER_LIMITS = { maxYoungGenerationSizeMb: 64 };
 
 export type SlowOutcome = { result: SlowResult } | { error: string } | { superseded: true };
 
@@ -22,6 +27,7 @@ interface Pending {
 export class AnalysisRunner {
   private worker: Worker | null = null;
   private helper: Worker | null = null;
+  private helperCells: Int32Array | null = null;
   private running: Pending | null = null;
   private readonly queue = new Map<string, Pending>();
   private nextJob = 1;
@@ -113,29 +119,8 @@ export class AnalysisRunner {
 
   private ensureWorker(): Worker {
     if (this.worker) return this.worker;
-    // The analyses allocate many short-lived rows; a larger young generation means fewer
-    // scavenges (about 10 % off a 100-state analysis, measured with test/bench/lsp.mjs).
-    const resourceLimits = { maxYoungGenerationSizeMb: 64 };
-    const worker = new Worker(this.workerPath!, { resourceLimits });
-    if (availableParallelism() > 1 && process.env.LOOPWRIGHT_ANALYSIS_THREADS !== '1') {
-      // A second thread takes the plant reports and fragility studies (analysisHelper.ts).
-      const helper = new Worker(this.workerPath!, { resourceLimits, workerData: { role: 'helper' } });
-      const channel = new MessageChannel();
-      const cells = new SharedArrayBuffer(8);
-      const gone = () => {
-        const view = new Int32Array(cells);
-        Atomics.store(view, HELPER_GONE, 1);
-        Atomics.notify(view, ANSWERS_POSTED);
-      };
-      helper.on('message', (message: { kind?: string; message?: string }) => {
-        if (message?.kind === 'log' && message.message) this.log(message.message);
-      });
-      helper.on('error', (error) => this.log(`analysis helper failed: ${error.stack ?? error.message}`));
-      helper.on('exit', gone);
-      helper.postMessage({ kind: 'link', port: channel.port2, cells }, [channel.port2]);
-      worker.postMessage({ kind: 'link', port: channel.port1, cells }, [channel.port1]);
-      this.helper = helper;
-    }
+    const worker = new Worker(this.workerPath!, { resourceLimits: WORKER_LIMITS });
+    if (availableParallelism() > 1 && process.env.LOOPWRIGHT_ANALYSIS_THREADS !== '1') this.linkHelper(worker);
     worker.on('message', (reply: AnalysisReply | { kind: 'log'; message: string }) => {
       if ('kind' in reply) {
         if (reply.kind === 'log') this.log(reply.message);
@@ -151,9 +136,6 @@ export class AnalysisRunner {
     worker.on('exit', (code) => {
       if (this.worker !== worker) return; // terminated on purpose
       this.worker = null;
-      const helper = this.helper;
-      this.helper = null;
-      if (helper) void helper.terminate(); // the next job starts a fresh pair
       const pending = this.running;
       if (pending) this.finish(pending, { error: `analysis worker stopped (exit code ${code})` });
     });
@@ -161,12 +143,43 @@ export class AnalysisRunner {
     return worker;
   }
 
+  /**
+   * Links a new worker to the helper thread (analysisHelper.ts) through a fresh channel and fresh
+   * shared cells. An idle helper outlives the worker it served (typing cancels analyses often, and
+   * a thread costs tens of milliseconds to start); a busy or missing one is (re)started.
+   */
+  private linkHelper(worker: Worker): void {
+    if (!this.helper) {
+      const helper = new Worker(this.workerPath!, { resourceLimits: WORKER_LIMITS, workerData: { role: 'helper' } });
+      helper.on('message', (message: { kind?: string; message?: string }) => {
+        if (message?.kind === 'log' && message.message) this.log(message.message);
+      });
+      helper.on('error', (error) => this.log(`analysis helper failed: ${error.stack ?? error.message}`));
+      helper.on('exit', () => {
+        if (this.helper !== helper) return; // stopped on purpose
+        this.helper = null;
+        // Whoever waits on the helper stops waiting and computes its part itself.
+        Atomics.store(this.helperCells!, HELPER_GONE, 1);
+        Atomics.notify(this.helperCells!, ANSWERS_POSTED);
+      });
+      this.helper = helper;
+    }
+    const channel = new MessageChannel();
+    const cells = new SharedArrayBuffer(HELPER_CELLS * 4);
+    this.helperCells = new Int32Array(cells);
+    this.helper.postMessage({ kind: 'link', port: channel.port2, cells }, [channel.port2]);
+    worker.postMessage({ kind: 'link', port: channel.port1, cells }, [channel.port1]);
+  }
+
   private stopWorker(): void {
     const worker = this.worker;
-    const helper = this.helper;
     this.worker = null;
-    this.helper = null;
     if (worker) void worker.terminate();
-    if (helper) void helper.terminate();
+    const helper = this.helper;
+    if (helper && (this.disposed || (this.helperCells && Atomics.load(this.helperCells, HELPER_BUSY) !== 0))) {
+      // Still computing for the abandoned job: stopping it is cheaper than waiting for it.
+      this.helper = null;
+      void helper.terminate();
+    }
   }
 }

@@ -17,7 +17,12 @@ export interface HelperLinkMessage {
 const log = (message: string) => parentPort?.postMessage({ kind: 'log', message });
 
 if ((workerData as { role?: string } | null)?.role === 'helper') {
-  parentPort?.once('message', (link: HelperLinkMessage) => serveAsHelper(link.port, new Int32Array(link.cells), log));
+  // One link at a time: each new analysis worker gets a fresh one (the previous one is closed).
+  let unlink: (() => void) | null = null;
+  parentPort?.on('message', (link: HelperLinkMessage) => {
+    unlink?.();
+    unlink = serveAsHelper(link.port, new Int32Array(link.cells), log);
+  });
 } else {
   let helper: { port: MessagePort; cells: Int32Array } | null = null;
   parentPort?.on('message', (message: AnalysisJob | HelperLinkMessage) => {
