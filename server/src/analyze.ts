@@ -6,12 +6,11 @@ import { parsePlantText } from '../../grammar/src/index';
 import type { ParseResult } from '../../grammar/src/ast';
 import { checkDocument, checkPlant } from './model/check';
 import type { PlantDecl } from '../../grammar/src/ast';
-import type { CheckedDocument, Diagnostic } from './model/types';
+import type { CheckedController, CheckedDocument, Diagnostic } from './model/types';
 import { resolveSettings, type AnalysisSettings } from './control/settings';
 import { analyzePlant, designController, type PlantReport, type ControllerReport } from './control/design';
 import { runFragility, type DesignContext, type FragilityRequest } from './control/controllerDesign';
 import type { FragilityResult } from './control/fragility';
-import type { CheckedController } from './model/types';
 
 export type { PlantReport, ControllerReport } from './control/design';
 
@@ -84,9 +83,17 @@ function plantRebuilder(fast: FastCheck, controller: CheckedController): DesignC
   };
 }
 
-/** The helper's side: one plant report (the same record `analyzeFastCheck` computes). */
-export function plantReportsOf(fast: FastCheck, overrides: Partial<AnalysisSettings>): PlantReport[] {
+function largestPlant(fast: FastCheck): number {
+  return Math.max(0, ...fast.model.plants.map((plant) => plant.states.length));
+}
+
+/**
+ * The helper's side: the plant reports (the records `analyzeFastCheck` computes), or null when
+ * the document is beyond live analysis (`maxLiveStates`), where nothing is analysed at all.
+ */
+export function plantReportsOf(fast: FastCheck, overrides: Partial<AnalysisSettings>): PlantReport[] | null {
   const settings = resolveSettings(overrides);
+  if (largestPlant(fast) > settings.maxLiveStates) return null;
   return fast.model.plants.map((plant) => analyzePlant(plant, settings));
 }
 
@@ -113,7 +120,7 @@ export function analyzeFastCheck(
   const plants: PlantReport[] = [];
   const controllers: ControllerReport[] = [];
   const diagnostics = [...fast.diagnostics];
-  const largest = Math.max(0, ...fast.model.plants.map((p) => p.states.length));
+  const largest = largestPlant(fast);
   if (largest > settings.maxLiveStates) {
     return {
       ...fast,

@@ -40,6 +40,14 @@ describe('analysis split across a helper (same thread)', () => {
     expect(cloneable(split.controllers)).toEqual(cloneable(single.controllers));
   });
 
+  it('the helper analyses nothing beyond maxLiveStates, as the coordinator does not', () => {
+    const fast = checkText(sampleText('hoist.plant'));
+    const states = Math.max(...fast.model.plants.map((plant) => plant.states.length));
+    expect(plantReportsOf(fast, { maxLiveStates: states - 1 })).toBeNull();
+    expect(plantReportsOf(fast, { maxLiveStates: states })).toHaveLength(fast.model.plants.length);
+    expect(analyzeFastCheck(fast, { maxLiveStates: states - 1 }).skipped?.reason).toBe('too-large');
+  });
+
   it('a helper that cannot answer (null) leaves the work to the coordinator', () => {
     const text = sampleText('dosing-tank.plant');
     const single = analyzeFastCheck(checkText(text));
