@@ -241,10 +241,23 @@ export async function startEditor(options: StartOptions = {}): Promise<Editor> {
       async openFile(name) {
         // The explorer, not Quick Open: Quick Open's file search is slow to index on a fresh profile.
         const row = page.locator(`.explorer-folders-view .monaco-list-row[aria-label="${name}"]`);
-        await row.waitFor();
-        await row.click();
         const tab = page.locator('.tabs-container .tab.active', { hasText: name });
-        await tab.waitFor();
+        // A click can be lost while the workbench is busy (seen once in CI: the tab never came);
+        // click again, at most three times, each time waiting for the tab as the event.
+        for (let attempt = 1; ; attempt++) {
+          await row.waitFor();
+          await row.click();
+          if (attempt === 3) {
+            await tab.waitFor();
+            break;
+          }
+          const shown = await tab.waitFor({ timeout: 10_000 }).then(
+            () => true,
+            () => false,
+          );
+          if (shown) break;
+          await page.keyboard.press('Escape'); // close whatever took the click
+        }
         await page.locator('.editor-instance .monaco-editor .view-lines').first().waitFor();
         await page.keyboard.press('Control+1'); // focus the editor, as a person would by clicking into it
         await page.locator('.editor-instance .monaco-editor.focused').first().waitFor();
