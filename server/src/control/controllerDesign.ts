@@ -388,6 +388,7 @@ export function designController(
 
   // The fragility study needs only the gains and the prescaler: start it now where it can run
   // alongside the rest of the design (its verdict joins the diagnostics at the end, as always).
+  const integral = integrated.length ? { Kx, Ki, outputs: integrated } : undefined;
   const fragilityRequest: FragilityRequest | null =
     tracked.length && report.prescaler && context.rebuildPlant
       ? {
@@ -398,7 +399,7 @@ export function designController(
           percent: settings.parameterErrorPercent,
           domain: model.domain,
           samplePeriod: model.T ?? undefined,
-          integral: integrated.length ? { Kx, Ki, outputs: integrated } : undefined,
+          integral,
           ...fragilityBoxBudget(nd + integrated.length, settings),
         }
       : null;
@@ -501,7 +502,6 @@ export function designController(
 
   // Fragility of the tracking design under parameter error, and disturbance rejection.
   if (tracked.length && report.prescaler) {
-    const integral = integrated.length ? { Kx, Ki, outputs: integrated } : undefined;
     if (context.rebuildPlant && fragilityRequest) {
       const names = plant.parameters.map((parameter) => parameter.name);
       const fragility = pendingFragility?.() ?? runFragility(controller, plant, context.rebuildPlant, fragilityRequest);

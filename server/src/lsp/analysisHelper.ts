@@ -1,4 +1,4 @@
-// The second analysis thread. The machine has more than one core, and one document's slow
+// The second analysis thread, used on machines with more than one core. One document's slow
 // analysis splits cleanly: the plant reports need only the text, and a controller's fragility
 // study (a dozen eigenvalue problems of the perturbed loop) needs only the text plus the gains
 // and prescaler. So the analysis worker (the coordinator) designs the controllers while this
@@ -9,7 +9,10 @@
 // The coordinator waits synchronously (its analysis is one synchronous call): the helper posts
 // each answer on a MessagePort and then bumps a shared counter that the coordinator sleeps on
 // with Atomics.wait, reading the port with receiveMessageOnPort. A second shared cell says the
-// helper is gone (set by the server when the helper thread exits), so nobody waits for a dead thread.
+// helper is gone (set by the server when the helper thread exits), so nobody waits for a dead
+// thread; a third says it is busy (the server stops a busy helper when the job is abandoned).
+// The wait is bounded in wall-clock time, but that decides only which thread computes an
+// answer, never the answer: results do not depend on machine load.
 import { type MessagePort, receiveMessageOnPort } from 'node:worker_threads';
 import { checkText, fragilityOf, plantReportsOf, type AnalysisHelper, type FastCheck } from '../analyze';
 import type { FragilityRequest } from '../control/controllerDesign';

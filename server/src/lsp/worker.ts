@@ -2,7 +2,7 @@
 // off the server's main thread, so hovers and completions answer while a large model analyses.
 // The server terminates this thread when a newer edit makes the running job pointless.
 // The same file runs as the analysis helper (workerData.role === 'helper', analysisHelper.ts):
-// the server links the two threads with a MessageChannel and two shared cells.
+// the server links each worker to it with a fresh MessageChannel and shared cells.
 import { type MessagePort, parentPort, workerData } from 'node:worker_threads';
 import { helperForJob, serveAsHelper } from './analysisHelper';
 import { cloneable, runSlowAnalysis, type AnalysisJob, type AnalysisReply } from './slowAnalysis';
