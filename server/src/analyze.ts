@@ -9,7 +9,7 @@ import type { PlantDecl } from '../../grammar/src/ast';
 import type { CheckedController, CheckedDocument, Diagnostic } from './model/types';
 import { resolveSettings, type AnalysisSettings } from './control/settings';
 import { analyzePlant, designController, type PlantReport, type ControllerReport } from './control/design';
-import { runFragility, type DesignContext, type FragilityRequest } from './control/controllerDesign';
+import { prepareFragilityPlants, runFragility, type DesignContext, type FragilityRequest, type RebuiltPlants } from './control/controllerDesign';
 import type { FragilityResult } from './control/fragility';
 
 export type { PlantReport, ControllerReport } from './control/design';
@@ -97,13 +97,37 @@ export function plantReportsOf(fast: FastCheck, overrides: Partial<AnalysisSetti
   return fast.model.plants.map((plant) => analyzePlant(plant, settings));
 }
 
-/** The helper's side: a controller's fragility study on the helper's own parse of the same text. */
-export function fragilityOf(fast: FastCheck, controllerIndex: number, request: FragilityRequest): FragilityResult | null {
+/**
+ * The helper's side: a controller's fragility study on the helper's own parse of the same text,
+ * using the plants `prepareFragility` rebuilt ahead of the gains where it did.
+ */
+export function fragilityOf(fast: FastCheck, controllerIndex: number, request: FragilityRequest, prepared?: RebuiltPlants): FragilityResult | null {
   const controller = fast.model.controllers[controllerIndex];
   const plant = controller?.plantIndex === null || !controller ? undefined : fast.model.plants[controller.plantIndex];
   const rebuild = controller ? plantRebuilder(fast, controller) : undefined;
   if (!controller || !plant || !rebuild) return null;
-  return runFragility(controller, plant, rebuild, request);
+  return runFragility(controller, plant, rebuild, request, prepared);
+}
+
+/** Plants rebuilt ahead per controller are kept up to this many numbers in all (32 MB). */
+const PREPARED_NUMBERS_LIMIT = 1 << 22;
+
+/**
+ * The helper's side, while the coordinator still computes the gains: rebuilds the plants each
+ * controller's fragility study will need, for `fragilityOf` (one map per controller).
+ */
+export function prepareFragility(fast: FastCheck, overrides: Partial<AnalysisSettings>): RebuiltPlants[] {
+  const settings = resolveSettings(overrides);
+  if (largestPlant(fast) > settings.maxLiveStates) return [];
+  return fast.model.controllers.map((controller) => {
+    const prepared: RebuiltPlants = new Map();
+    const plant = controller.plantIndex === null ? undefined : fast.model.plants[controller.plantIndex];
+    const rebuild = plantRebuilder(fast, controller);
+    if (!plant?.usable || !rebuild) return prepared;
+    const size = Math.max(1, plant.states.length + plant.inputs.length) ** 2;
+    prepareFragilityPlants(controller, plant, rebuild, settings, prepared, Math.max(1, Math.floor(PREPARED_NUMBERS_LIMIT / size / Math.max(1, fast.model.controllers.length))));
+    return prepared;
+  });
 }
 
 function plantDeclarations(fast: FastCheck): PlantDecl[] {

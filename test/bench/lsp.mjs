@@ -4,10 +4,13 @@
 //     for generated 10- and 100-state models;
 //   - the largest model again in alternating blocks with and without the analysis helper thread;
 //   - hover latency while a 200-state model analyses (median).
+// `--timeline` instead prints where the time of one 100-state analysis goes, per thread: median
+// milliseconds from the coordinator's job start to each mark of server/src/lsp/trace.ts.
 // `--soak N` instead replays N seeded random edits (default 10,000) with requests in between
 // and reports whether the server stayed up and answered everything.
 import { spawn } from 'node:child_process';
-import { existsSync, readFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { fileURLToPath } from 'node:url';
@@ -260,7 +263,33 @@ async function runSoak(edits) {
   await session.stop();
 }
 
-if (args.includes('--soak')) {
+async function printTimeline(n, edits) {
+  const directory = mkdtempSync(join(tmpdir(), 'loopwright-trace-'));
+  const file = join(directory, 'trace.log');
+  const { full } = await measureEdits(n, edits, { LOOPWRIGHT_TRACE: file });
+  const marks = readFileSync(file, 'utf8').trim().split('\n').map((line) => {
+    const space = line.indexOf(' ');
+    return { time: Number(line.slice(0, space)), label: line.slice(space + 1) };
+  });
+  rmSync(directory, { recursive: true, force: true });
+  marks.sort((a, b) => a.time - b.time);
+  const jobs = [];
+  for (const mark of marks) {
+    if (mark.label === 'coordinator: job start') jobs.push({ start: mark.time, offsets: new Map() });
+    else if (jobs.length && !jobs[jobs.length - 1].offsets.has(mark.label)) jobs[jobs.length - 1].offsets.set(mark.label, mark.time - jobs[jobs.length - 1].start);
+  }
+  const measured = jobs.slice(1); // the first job is the didOpen
+  const labels = [...new Set(measured.flatMap((job) => [...job.offsets.keys()]))];
+  const rows = labels.map((label) => [label, percentile(measured.map((job) => job.offsets.get(label)).filter((v) => v !== undefined), 50)]);
+  rows.sort((a, b) => a[1] - b[1]);
+  console.log(`${n}-state model, ${measured.length} edits: median ms after the coordinator starts the job`);
+  for (const [label, offset] of rows) console.log(`${ms(offset).padStart(8)}  ${label}`);
+  console.log(`${ms(percentile(full, 50)).padStart(8)}  didChange → full diagnostics (client side)`);
+}
+
+if (args.includes('--timeline')) {
+  await printTimeline(100, option('--edits', 40));
+} else if (args.includes('--soak')) {
   await runSoak(option('--soak', 10_000) || 10_000);
 } else {
   const edits = option('--edits', 200);

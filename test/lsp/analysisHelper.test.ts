@@ -6,7 +6,8 @@ import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { MessageChannel, Worker } from 'node:worker_threads';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { analyzeFastCheck, checkText, fragilityOf, plantReportsOf, type AnalysisHelper } from '../../server/src/analyze';
+import { analyzeFastCheck, checkText, fragilityOf, plantReportsOf, prepareFragility, type AnalysisHelper } from '../../server/src/analyze';
+import type { FragilityRequest } from '../../server/src/control/controllerDesign';
 import { ANSWERS_POSTED, HELPER_BUSY, HELPER_CELLS, HELPER_GONE } from '../../server/src/lsp/analysisHelper';
 import { cloneable, runSlowAnalysis, type AnalysisReply } from '../../server/src/lsp/slowAnalysis';
 import { ensureBuilt, root } from './lspClient';
@@ -19,6 +20,7 @@ describe('analysis split across a helper (same thread)', () => {
     const text = sampleText(sample);
     const single = analyzeFastCheck(checkText(text));
     const helperParse = checkText(text); // the helper's own parse of the same text
+    const prepared = prepareFragility(helperParse, {}); // as the helper does while it waits for gains
     let answered = 0;
     const helper: AnalysisHelper = {
       plantReports: () => {
@@ -26,7 +28,7 @@ describe('analysis split across a helper (same thread)', () => {
         return plantReportsOf(helperParse, {});
       },
       startFragility: (controllerIndex, request) => {
-        const result = fragilityOf(helperParse, controllerIndex, request);
+        const result = fragilityOf(helperParse, controllerIndex, request, prepared[controllerIndex]);
         return () => {
           if (result) answered++;
           return result;
@@ -38,6 +40,27 @@ describe('analysis split across a helper (same thread)', () => {
     expect(cloneable(split.diagnostics)).toEqual(cloneable(single.diagnostics));
     expect(cloneable(split.plants)).toEqual(cloneable(single.plants));
     expect(cloneable(split.controllers)).toEqual(cloneable(single.controllers));
+  });
+
+  it('plants rebuilt ahead of the gains are exactly the ones the fragility study needs', () => {
+    const fast = checkText(sampleText('dosing-tank.plant'));
+    const requests: { controllerIndex: number; request: FragilityRequest }[] = [];
+    analyzeFastCheck(checkText(sampleText('dosing-tank.plant')), {}, {
+      helper: { plantReports: () => null, startFragility: (controllerIndex, request) => (requests.push({ controllerIndex, request }), () => null) },
+    });
+    expect(requests.length).toBeGreaterThan(0);
+    const prepared = prepareFragility(fast, {});
+    for (const { controllerIndex, request } of requests) {
+      const ahead = prepared[controllerIndex];
+      const points = ahead.size;
+      // every distinct point: the nominal plant, each parameter at ±p %, the box vertices
+      const k = request.nominal.length;
+      expect(points).toBeGreaterThanOrEqual(1 + 2 ** k);
+      expect(points).toBeLessThanOrEqual(1 + 2 * k + 2 ** k);
+      const withPrepared = fragilityOf(fast, controllerIndex, request, ahead);
+      expect(ahead.size).toBe(points); // the study rebuilt nothing the helper had not prepared
+      expect(cloneable(withPrepared)).toEqual(cloneable(fragilityOf(checkText(sampleText('dosing-tank.plant')), controllerIndex, request)));
+    }
   });
 
   it('the helper analyses nothing beyond maxLiveStates, as the coordinator does not', () => {

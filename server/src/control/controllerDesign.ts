@@ -13,7 +13,7 @@ import { designDiagnostics as findings } from './diagnostics/designFindings';
 import { discretiseZeroOrderHold, mapPolesToContinuous, mapPolesToDiscrete, sampledCostWeights } from './discretise';
 import { float32ClosedLoopCheck } from './float32Check';
 import { bandwidth, frequencyResponse, logarithmicGrid } from './frequencyResponse';
-import { analyzeFragility, type FragilityInput, type FragilityResult, type PlantMatrices } from './fragility';
+import { analyzeFragility, fragilityParameterPoints, type FragilityInput, type FragilityResult, type PlantMatrices } from './fragility';
 import { disturbanceRejection } from './disturbanceRejection';
 import { integralActionFeasibility } from './integralAction';
 import { steadyStateKalmanGain } from './kalman';
@@ -45,21 +45,69 @@ export interface DesignContext {
 /** Everything the fragility study needs besides the plant rebuild: plain data, cloneable. */
 export type FragilityRequest = Omit<FragilityInput, 'rebuild'>;
 
+/**
+ * Design-model matrices already rebuilt for parameter vectors (keyed by `rebuiltPlantKey`): the
+ * rebuild is a pure function of the values, so a plant prepared early is the plant needed later.
+ */
+export type RebuiltPlants = Map<string, PlantMatrices | null>;
+
+export function rebuiltPlantKey(values: number[]): string {
+  return values.join(' '); // a number's shortest round-trip form: distinct values, distinct keys
+}
+
+function designMatricesRebuilder(
+  controller: CheckedController,
+  plant: CheckedPlant,
+  rebuildPlant: NonNullable<DesignContext['rebuildPlant']>,
+  prepared?: RebuiltPlants,
+): (values: number[]) => PlantMatrices | null {
+  const names = plant.parameters.map((parameter) => parameter.name);
+  return (values) => {
+    const key = rebuiltPlantKey(values);
+    if (prepared?.has(key)) return prepared.get(key)!;
+    const perturbed = rebuildPlant(Object.fromEntries(names.map((name, i) => [name, values[i]])));
+    let matrices: PlantMatrices | null = null;
+    if (perturbed && perturbed.usable) {
+      const perturbedModel = buildDesignModel(perturbed, controller);
+      matrices = { A: perturbedModel.A, B: perturbedModel.B, C: perturbedModel.C, D: perturbedModel.D, E: perturbedModel.E };
+    }
+    prepared?.set(key, matrices);
+    return matrices;
+  };
+}
+
 /** The fragility study of a controller on its plant, re-checking the plant with parameters moved. */
 export function runFragility(
   controller: CheckedController,
   plant: CheckedPlant,
   rebuildPlant: NonNullable<DesignContext['rebuildPlant']>,
   request: FragilityRequest,
+  prepared?: RebuiltPlants,
 ): FragilityResult {
-  const names = plant.parameters.map((parameter) => parameter.name);
-  const rebuild = (values: number[]): PlantMatrices | null => {
-    const perturbed = rebuildPlant(Object.fromEntries(names.map((name, i) => [name, values[i]])));
-    if (!perturbed || !perturbed.usable) return null;
-    const perturbedModel = buildDesignModel(perturbed, controller);
-    return { A: perturbedModel.A, B: perturbedModel.B, C: perturbedModel.C, D: perturbedModel.D, E: perturbedModel.E };
-  };
-  return analyzeFragility({ rebuild, ...request });
+  return analyzeFragility({ rebuild: designMatricesRebuilder(controller, plant, rebuildPlant, prepared), ...request });
+}
+
+/** The parameter points a controller's fragility study will use: known before its gains are. */
+function fragilityPointsOf(plant: CheckedPlant, order: number, settings: AnalysisSettings): Pick<FragilityRequest, 'nominal' | 'percent' | 'samples' | 'maxVertexParameters'> {
+  return { nominal: plant.parameters.map((parameter) => parameter.value), percent: settings.parameterErrorPercent, ...fragilityBoxBudget(order, settings) };
+}
+
+/**
+ * Rebuilds, ahead of the gains, the plants a controller's fragility study will need (at most
+ * `limit` of them), so the study itself only has to evaluate closed loops.
+ */
+export function prepareFragilityPlants(
+  controller: CheckedController,
+  plant: CheckedPlant,
+  rebuildPlant: NonNullable<DesignContext['rebuildPlant']>,
+  settings: AnalysisSettings,
+  prepared: RebuiltPlants,
+  limit: number,
+): void {
+  if (!controller.track?.outputs.length || plant.parameters.length === 0) return;
+  const order = buildDesignModel(plant, controller).A.length + (controller.integral?.outputs ?? []).length;
+  const rebuild = designMatricesRebuilder(controller, plant, rebuildPlant, prepared);
+  for (const values of fragilityParameterPoints(fragilityPointsOf(plant, order, settings)).slice(0, limit)) rebuild(values);
 }
 
 /** The matrices the gains are computed for (continuous plant, or its sampled model). */
@@ -392,15 +440,13 @@ export function designController(
   const fragilityRequest: FragilityRequest | null =
     tracked.length && report.prescaler && context.rebuildPlant
       ? {
-          nominal: plant.parameters.map((parameter) => parameter.value),
+          ...fragilityPointsOf(plant, nd + integrated.length, settings),
           K: Kx,
           N: report.prescaler,
           trackedOutputs: tracked,
-          percent: settings.parameterErrorPercent,
           domain: model.domain,
           samplePeriod: model.T ?? undefined,
           integral,
-          ...fragilityBoxBudget(nd + integrated.length, settings),
         }
       : null;
   const pendingFragility = fragilityRequest && context.startFragility ? context.startFragility(fragilityRequest) : null;

@@ -158,16 +158,43 @@ function worstOf(outcomes: (PerturbedOutcome | null)[]): number {
   return worst;
 }
 
+/** Parameter vectors of the box check: all vertices for k ≤ maxVertexParameters, else seeded samples. */
+function boxPoints(nominal: number[], percent: number, maxVertexParameters = 10, samples = 1024): { method: 'vertices' | 'sampled'; points: number[][] } {
+  const fraction = percent / 100;
+  const k = nominal.length;
+  const points: number[][] = [];
+  if (k <= maxVertexParameters) {
+    for (let mask = 0; mask < 1 << k; mask++) points.push(nominal.map((v, i) => v * (1 + ((mask >> i) & 1 ? fraction : -fraction))));
+    return { method: 'vertices', points };
+  }
+  const random = seededRandom(20261202);
+  for (let s = 0; s < samples; s++) points.push(nominal.map((v) => v * (1 + 2 * fraction * random())));
+  return { method: 'sampled', points };
+}
+
+/** One parameter moved by ±p % with the others nominal (sign −1 or +1). */
+function movedParameter(nominal: number[], index: number, sign: number, fraction: number): number[] {
+  const values = nominal.slice();
+  values[index] = nominal[index] * (1 + sign * fraction);
+  return values;
+}
+
+/**
+ * Every parameter vector the study rebuilds the plant at, in the order it does: nominal, each
+ * parameter −p % and +p %, then the box. Lets a caller prepare the plants before the gains exist.
+ */
+export function fragilityParameterPoints(input: Pick<FragilityInput, 'nominal' | 'percent' | 'maxVertexParameters' | 'samples'>): number[][] {
+  const fraction = input.percent / 100;
+  const moved = input.nominal.flatMap((_, index) => [movedParameter(input.nominal, index, -1, fraction), movedParameter(input.nominal, index, 1, fraction)]);
+  return [input.nominal.slice(), ...moved, ...boxPoints(input.nominal, input.percent, input.maxVertexParameters, input.samples).points];
+}
+
 export function analyzeFragility(input: FragilityInput): FragilityResult {
   const fraction = input.percent / 100;
   const nominalPlant = input.rebuild(input.nominal);
   const nominal = evaluate(nominalPlant, input) ?? { trackingError: null, integralError: null, stable: false, integralStable: null };
-  const parameters: ParameterFragility[] = input.nominal.map((value, index) => {
-    const at = (sign: number) => {
-      const values = input.nominal.slice();
-      values[index] = value * (1 + sign * fraction);
-      return evaluate(input.rebuild(values), input);
-    };
+  const parameters: ParameterFragility[] = input.nominal.map((_, index) => {
+    const at = (sign: number) => evaluate(input.rebuild(movedParameter(input.nominal, index, sign, fraction)), input);
     const minus = at(-1);
     const plus = at(1);
     return { index, minus, plus, worstTrackingError: worstOf([minus, plus]) };
@@ -190,18 +217,7 @@ export function analyzeFragility(input: FragilityInput): FragilityResult {
   }
 
   // Stability over the box.
-  const k = input.nominal.length;
-  const maxVertex = input.maxVertexParameters ?? 10;
-  const points: number[][] = [];
-  let method: 'vertices' | 'sampled' = 'vertices';
-  if (k <= maxVertex) {
-    for (let mask = 0; mask < 1 << k; mask++) points.push(input.nominal.map((v, i) => v * (1 + ((mask >> i) & 1 ? fraction : -fraction))));
-  } else {
-    method = 'sampled';
-    const random = seededRandom(20261202);
-    const count = input.samples ?? 1024;
-    for (let s = 0; s < count; s++) points.push(input.nominal.map((v) => v * (1 + 2 * fraction * random())));
-  }
+  const { method, points } = boxPoints(input.nominal, input.percent, input.maxVertexParameters, input.samples);
   let allStable = true;
   let integralAllStable: boolean | null = input.integral ? true : null;
   let worstPole: Complex | null = null;

@@ -14,12 +14,14 @@
 // The wait is bounded in wall-clock time, but that decides only which thread computes an
 // answer, never the answer: results do not depend on machine load.
 import { type MessagePort, receiveMessageOnPort } from 'node:worker_threads';
-import { checkText, fragilityOf, plantReportsOf, type AnalysisHelper, type FastCheck } from '../analyze';
+import { checkText, fragilityOf, plantReportsOf, prepareFragility, type AnalysisHelper, type FastCheck } from '../analyze';
+import type { RebuiltPlants } from '../control/controllerDesign';
 import type { FragilityRequest } from '../control/controllerDesign';
 import type { FragilityResult } from '../control/fragility';
 import type { PlantReport } from '../control/design';
 import type { AnalysisSettings } from '../control/settings';
 import { cloneable } from './slowAnalysis';
+import { traceMark } from './trace';
 
 /** Shared cells (an Int32Array of HELPER_CELLS entries over a SharedArrayBuffer), one set per link. */
 export const ANSWERS_POSTED = 0;
@@ -41,7 +43,7 @@ export type FromHelper =
  * Returns a function that ends the link (the server links each new worker afresh).
  */
 export function serveAsHelper(port: MessagePort, cells: Int32Array, log: (message: string) => void): () => void {
-  let current: { job: number; fast: FastCheck } | null = null;
+  let current: { job: number; fast: FastCheck; prepared: RebuiltPlants[] } | null = null;
   const answer = (message: FromHelper): void => {
     try {
       port.postMessage(message);
@@ -52,24 +54,34 @@ export function serveAsHelper(port: MessagePort, cells: Int32Array, log: (messag
     Atomics.notify(cells, ANSWERS_POSTED);
   };
   const serve = (message: ToHelper): void => {
+    traceMark(`helper: ${message.kind} request`);
     if (message.kind === 'start') {
       let reports: PlantReport[] | null = null;
       try {
         const fast = checkText(message.text);
-        current = { job: message.job, fast };
+        current = { job: message.job, fast, prepared: [] };
         reports = plantReportsOf(fast, message.settings);
       } catch (error) {
         log(`analysis helper: plant reports failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
       }
+      traceMark('helper: plant reports done');
       answer({ kind: 'plants', job: message.job, reports });
+      // Idle until the gains arrive: rebuild the plants the fragility studies will need.
+      try {
+        if (current?.job === message.job) current.prepared = prepareFragility(current.fast, message.settings);
+      } catch (error) {
+        log(`analysis helper: preparing fragility plants failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
+      }
+      traceMark('helper: fragility plants prepared');
       return;
     }
     let result: FragilityResult | null = null;
     try {
-      if (current?.job === message.job) result = fragilityOf(current.fast, message.controllerIndex, message.request);
+      if (current?.job === message.job) result = fragilityOf(current.fast, message.controllerIndex, message.request, current.prepared[message.controllerIndex]);
     } catch (error) {
       log(`analysis helper: fragility failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
     }
+    traceMark('helper: fragility study done');
     answer({ kind: 'fragility', job: message.job, controllerIndex: message.controllerIndex, result });
   };
   port.on('message', (message: ToHelper) => {
@@ -122,18 +134,21 @@ export function helperForJob(
   const started = send({ kind: 'start', job, text, settings });
   return {
     plantReports: () => {
+      traceMark('coordinator: waits for the plant reports');
       if (!started) return null;
       return waitFor((message): message is Extract<FromHelper, { kind: 'plants' }> => message.kind === 'plants')?.reports ?? null;
     },
     startFragility: (controllerIndex, request) => {
+      traceMark('coordinator: gains known, fragility handed over');
       const sent = started && send({ kind: 'fragility', job, controllerIndex, request });
-      return () =>
-        sent
-          ? (waitFor(
-              (message): message is Extract<FromHelper, { kind: 'fragility' }> =>
-                message.kind === 'fragility' && message.controllerIndex === controllerIndex,
-            )?.result ?? null)
-          : null;
+      return () => {
+        traceMark('coordinator: waits for the fragility study');
+        if (!sent) return null;
+        const answer = waitFor(
+          (message): message is Extract<FromHelper, { kind: 'fragility' }> => message.kind === 'fragility' && message.controllerIndex === controllerIndex,
+        );
+        return answer?.result ?? null;
+      };
     },
   };
 }

@@ -5,6 +5,7 @@
 // the server links each worker to it with a fresh MessageChannel and shared cells.
 import { type MessagePort, parentPort, workerData } from 'node:worker_threads';
 import { helperForJob, serveAsHelper } from './analysisHelper';
+import { traceMark } from './trace';
 import { cloneable, runSlowAnalysis, type AnalysisJob, type AnalysisReply } from './slowAnalysis';
 
 /** First message from the server when a helper thread is running beside this worker. */
@@ -31,6 +32,7 @@ if ((workerData as { role?: string } | null)?.role === 'helper') {
       return;
     }
     const job = message as AnalysisJob;
+    traceMark('coordinator: job start');
     let reply: AnalysisReply;
     try {
       const link = helper ? helperForJob(helper.port, helper.cells, job.job, job.text, job.settings) : undefined;
@@ -38,6 +40,7 @@ if ((workerData as { role?: string } | null)?.role === 'helper') {
     } catch (error) {
       reply = { job: job.job, uri: job.uri, version: job.version, error: error instanceof Error ? error.stack ?? error.message : String(error) };
     }
+    traceMark('coordinator: job end');
     try {
       parentPort!.postMessage(reply);
     } catch {
