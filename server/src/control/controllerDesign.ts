@@ -203,6 +203,8 @@ interface Gains {
   closedLoopPoles: Complex[];
   /** The requested poles in s (placement and spec designs), before any z = e^{sT} map. */
   requestedContinuousPoles?: Complex[];
+  /** LQR: the Riccati solution X, a Lyapunov (Stein) function of the closed loop A − B·K. */
+  riccatiSolution?: Rows;
   details: Record<string, unknown>;
 }
 
@@ -244,6 +246,7 @@ function computeGains(
     return {
       K: lqr.K,
       closedLoopPoles: lqr.closedLoopPoles,
+      riccatiSolution: lqr.X ?? undefined,
       details: {
         lqr: {
           riccatiResidual: lqr.residual,
@@ -447,6 +450,8 @@ export function designController(
           domain: model.domain,
           samplePeriod: model.T ?? undefined,
           integral,
+          // Without integral states the study's nominal loop is the LQR closed loop itself.
+          lyapunovMatrix: integrated.length ? undefined : gains.riccatiSolution,
         }
       : null;
   const pendingFragility = fragilityRequest && context.startFragility ? context.startFragility(fragilityRequest) : null;

@@ -10,6 +10,7 @@ import { steadyStateGain } from './dcGain';
 import { seededRandom } from './placementRobust';
 import type { Domain } from './structure';
 import { multiplyRows as multiply } from './controlLinearAlgebra';
+import { certifiesStability, lyapunovCertificate, type LyapunovCertificate } from './lyapunovCertificate';
 
 export interface PlantMatrices {
   A: Rows;
@@ -34,6 +35,12 @@ export interface FragilityInput {
   /** Samples of the box when there are more than `maxVertexParameters` parameters (default 1024). */
   samples?: number;
   maxVertexParameters?: number;
+  /**
+   * X ≻ 0 with a Lyapunov (continuous) or Stein (discrete) decrease along the nominal loop
+   * A − B·K (an LQR design's Riccati solution). Where X still proves a perturbed loop stable, its
+   * eigenvalues are not computed; the outcome is the same.
+   */
+  lyapunovMatrix?: Rows;
 }
 
 export interface PerturbedOutcome {
@@ -129,10 +136,10 @@ function isStable(A: Rows, domain: Domain): { stable: boolean; worst: Complex | 
   return { stable: worst === null || stabilityMeasure(worst, domain) < 0, worst };
 }
 
-function evaluate(plant: PlantMatrices | null, input: FragilityInput): PerturbedOutcome | null {
+function evaluate(plant: PlantMatrices | null, input: FragilityInput, certificate: LyapunovCertificate | null): PerturbedOutcome | null {
   if (!plant) return null;
   const loop = prescalerLoop(plant, input.K, input.N, input.trackedOutputs);
-  const stability = isStable(loop.A, input.domain);
+  const stability = certificate && certifiesStability(certificate, loop.A, input.domain) ? { stable: true } : isStable(loop.A, input.domain);
   const outcome: PerturbedOutcome = {
     trackingError: stability.stable ? trackingError(steadyStateGain(loop.A, loop.B, loop.C, loop.D, input.domain)) : null,
     integralError: null,
@@ -191,15 +198,16 @@ export function fragilityParameterPoints(input: Pick<FragilityInput, 'nominal' |
 
 export function analyzeFragility(input: FragilityInput): FragilityResult {
   const fraction = input.percent / 100;
+  const certificate = input.lyapunovMatrix ? lyapunovCertificate(input.lyapunovMatrix) : null;
   const nominalPlant = input.rebuild(input.nominal);
-  const nominal = evaluate(nominalPlant, input) ?? { trackingError: null, integralError: null, stable: false, integralStable: null };
+  const nominal = evaluate(nominalPlant, input, certificate) ?? { trackingError: null, integralError: null, stable: false, integralStable: null };
   const parameters: ParameterFragility[] = input.nominal.map((_, index) => {
-    const at = (sign: number) => evaluate(input.rebuild(movedParameter(input.nominal, index, sign, fraction)), input);
+    const at = (sign: number) => evaluate(input.rebuild(movedParameter(input.nominal, index, sign, fraction)), input, certificate);
     const minus = at(-1);
     const plus = at(1);
     return { index, minus, plus, worstTrackingError: worstOf([minus, plus]) };
   });
-  const scaledB = (sign: number) => (nominalPlant ? evaluate({ ...nominalPlant, B: nominalPlant.B.map((row) => row.map((v) => v * (1 + sign * fraction))) }, input) : null);
+  const scaledB = (sign: number) => (nominalPlant ? evaluate({ ...nominalPlant, B: nominalPlant.B.map((row) => row.map((v) => v * (1 + sign * fraction))) }, input, certificate) : null);
   const inputScaleMinus = scaledB(-1);
   const inputScalePlus = scaledB(1);
   const inputScale: ParameterFragility = { index: -1, minus: inputScaleMinus, plus: inputScalePlus, worstTrackingError: worstOf([inputScaleMinus, inputScalePlus]) };

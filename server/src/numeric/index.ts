@@ -2,6 +2,7 @@
 export * from './types';
 export * from './dense';
 export * from './lu';
+export * from './cholesky';
 export * from './householder';
 export * from './hessenberg';
 export * from './schur';
