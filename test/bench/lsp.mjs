@@ -4,7 +4,7 @@
 //     for generated 10- and 100-state models;
 //   - the largest model again in alternating blocks with and without the analysis helper thread;
 //   - hover latency while a 200-state model analyses (median).
-// `--timeline` instead prints where the time of one 100-state analysis goes, per thread: median
+// `--timeline [--states N]` instead prints where the time of one N-state analysis (default 100) goes, per thread: median
 // milliseconds from the coordinator's job start to each mark of server/src/lsp/trace.ts.
 // `--soak N` instead replays N seeded random edits (default 10,000) with requests in between
 // and reports whether the server stayed up and answered everything.
@@ -288,7 +288,7 @@ async function printTimeline(n, edits) {
 }
 
 if (args.includes('--timeline')) {
-  await printTimeline(100, option('--edits', 40));
+  await printTimeline(option('--states', 100), option('--edits', 40));
 } else if (args.includes('--soak')) {
   await runSoak(option('--soak', 10_000) || 10_000);
 } else {
