@@ -9,7 +9,14 @@ import type { PlantDecl } from '../../grammar/src/ast';
 import type { CheckedController, CheckedDocument, Diagnostic } from './model/types';
 import { resolveSettings, type AnalysisSettings } from './control/settings';
 import { analyzePlant, designController, type PlantReport, type ControllerReport } from './control/design';
-import { prepareFragilityPlants, runFragility, type DesignContext, type FragilityRequest, type RebuiltPlants } from './control/controllerDesign';
+import {
+  prepareFragilityPlants,
+  runFragility,
+  type DesignContext,
+  type FragilityRequest,
+  type RebuiltPlants,
+  type RiccatiConditionRequest,
+} from './control/controllerDesign';
 import type { FragilityResult } from './control/fragility';
 
 export type { PlantReport, ControllerReport } from './control/design';
@@ -68,6 +75,8 @@ export interface AnalysisHelper {
   plantReports(): PlantReport[] | null;
   /** Hands a controller's fragility study over; the returned function waits for its result. */
   startFragility(controllerIndex: number, request: FragilityRequest): () => FragilityResult | null;
+  /** Hands an LQR design's Riccati condition estimate over (optional: else computed here). */
+  startRiccatiCondition?(controllerIndex: number, request: RiccatiConditionRequest): () => number | null;
 }
 
 /** Re-checks a controller's plant with parameters moved, without re-parsing (fragility study). */
@@ -171,6 +180,7 @@ export function analyzeFastCheck(
       // Fragility: the same plant text re-checked with parameters moved (nothing is re-parsed).
       rebuildPlant: plantRebuilder(fast, controller),
       startFragility: helper ? (request) => helper.startFragility(index, request) : undefined,
+      startRiccatiCondition: helper?.startRiccatiCondition ? (request) => helper.startRiccatiCondition!(index, request) : undefined,
     });
     controllers.push(report);
   }

@@ -7,7 +7,7 @@ import { join } from 'node:path';
 import { MessageChannel, Worker } from 'node:worker_threads';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { analyzeFastCheck, checkText, fragilityOf, plantReportsOf, prepareFragility, type AnalysisHelper } from '../../server/src/analyze';
-import type { FragilityRequest } from '../../server/src/control/controllerDesign';
+import { riccatiConditionOf, type FragilityRequest } from '../../server/src/control/controllerDesign';
 import { ANSWERS_POSTED, HELPER_BUSY, HELPER_CELLS, HELPER_GONE } from '../../server/src/lsp/analysisHelper';
 import { cloneable, runSlowAnalysis, type AnalysisReply } from '../../server/src/lsp/slowAnalysis';
 import { ensureBuilt, root } from './lspClient';
@@ -32,6 +32,13 @@ describe('analysis split across a helper (same thread)', () => {
         return () => {
           if (result) answered++;
           return result;
+        };
+      },
+      startRiccatiCondition: (_, request) => {
+        const value = riccatiConditionOf(structuredClone(request)); // as it crosses to the helper
+        return () => {
+          answered++;
+          return value;
         };
       },
     };

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fixture from '../fixtures/reference/numeric_solvers.json';
-import { solveContinuousRiccati } from '../../server/src/numeric/riccatiContinuous';
+import { continuousRiccatiConditionEstimate, solveContinuousRiccati } from '../../server/src/numeric/riccatiContinuous';
+import { sortComplex } from '../../server/src/numeric/eigenvectors';
 import { matrixSign } from '../../server/src/numeric/matrixSign';
 import { EPS, add, eye, frob, maxAbsDiff, mul, randomMatrix, scale, seededRandom, sub, tr } from './solverTestMatrices';
 
@@ -85,6 +86,22 @@ describe('solveContinuousRiccati (Laub Schur method + Newton–Kleinman)', () =>
       // Both results are backward stable solutions: the gap is within c·n·ε·κ·‖X‖ with κ our
       // condition estimate; c = 10 (measured worst case of the ratio over this fixture: below 0.4).
       expect(maxAbsDiff(s.X, c.careX), `n=${c.n} m=${c.m}`).toBeLessThan(10 * c.n * EPS * s.conditionEstimate * frob(c.careX));
+    }
+  });
+
+  it('the condition estimate left out and computed apart is the same number; X and K are unchanged (fixture)', () => {
+    for (const c of fixture.cases) {
+      const whole = solveContinuousRiccati(c.A, c.B, c.Q, c.R);
+      const gainsFirst = solveContinuousRiccati(c.A, c.B, c.Q, c.R, undefined, { conditionEstimate: false });
+      expect(gainsFirst.conditionEstimate).toBeNaN();
+      expect(gainsFirst.X).toEqual(whole.X);
+      expect(gainsFirst.gain).toEqual(whole.gain);
+      expect(continuousRiccatiConditionEstimate(c.A, c.B, c.Q, c.R, undefined, gainsFirst.X)).toBe(whole.conditionEstimate);
+      // Closed-loop eigenvalues from the eigenvalue-only QR: the same to rounding of A − BK.
+      const poles = sortComplex(gainsFirst.closedLoopEigenvalues);
+      const reference = sortComplex(whole.closedLoopEigenvalues);
+      const scale = frob(c.A) + frob(mul(c.B, whole.gain));
+      poles.forEach((pole, i) => expect(Math.hypot(pole.re - reference[i].re, pole.im - reference[i].im)).toBeLessThan(1e3 * c.n * EPS * scale));
     }
   });
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fixture from '../fixtures/reference/numeric_solvers.json';
-import { solveDiscreteRiccati } from '../../server/src/numeric/riccatiDiscrete';
+import { discreteRiccatiConditionEstimate, solveDiscreteRiccati } from '../../server/src/numeric/riccatiDiscrete';
 import { EPS, add, eye, frob, maxAbsDiff, mul, randomMatrix, scale, seededRandom, sub, tr } from './solverTestMatrices';
 
 /** One step of the Riccati difference equation X ↦ AᵀXA − AᵀXB(R + BᵀXB)⁻¹BᵀXA + Q (scalar R only). */
@@ -40,6 +40,18 @@ describe('solveDiscreteRiccati (structure-preserving doubling + Newton)', () => 
       expect(s.residual).toBeLessThan(10 * c.n * EPS);
       // Gap within c·n·ε·κ·‖X‖, κ = our condition estimate, c = 10.
       expect(maxAbsDiff(s.X, c.dareX), `n=${c.n} m=${c.m}`).toBeLessThan(10 * c.n * EPS * s.conditionEstimate * frob(c.dareX));
+    }
+  });
+
+  it('the condition estimate left out and computed apart is the same number; X and K are unchanged (fixture)', () => {
+    for (const c of fixture.cases) {
+      const whole = solveDiscreteRiccati(c.A, c.B, c.Q, c.R);
+      const gainsFirst = solveDiscreteRiccati(c.A, c.B, c.Q, c.R, undefined, { conditionEstimate: false });
+      expect(gainsFirst.conditionEstimate).toBeNaN();
+      expect(gainsFirst.ok).toBe(whole.ok);
+      expect(gainsFirst.X).toEqual(whole.X);
+      expect(gainsFirst.gain).toEqual(whole.gain);
+      expect(discreteRiccatiConditionEstimate(c.A, c.B, c.Q, c.R, undefined, gainsFirst.X)).toBe(whole.conditionEstimate);
     }
   });
 

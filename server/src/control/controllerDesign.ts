@@ -17,7 +17,7 @@ import { analyzeFragility, fragilityParameterPoints, type FragilityInput, type F
 import { disturbanceRejection } from './disturbanceRejection';
 import { integralActionFeasibility } from './integralAction';
 import { steadyStateKalmanGain } from './kalman';
-import { designLqr } from './lqr';
+import { designLqr, lqrConditionEstimate, type LqrProblem } from './lqr';
 import { loopMargins, outputFeedbackLoop, stateFeedbackLoop, type LoopMarginsResult } from './margins';
 import { compareObserverSpeed, defaultObserverPoles, designObserverByPlacement } from './observer';
 import { placePoles } from './placement';
@@ -40,6 +40,22 @@ export interface DesignContext {
    * the same pure function of the request.
    */
   startFragility?: (request: FragilityRequest) => () => FragilityResult | null;
+  /**
+   * Hands the LQR design's Riccati condition estimate over (same contract as startFragility: the
+   * returned function waits for the value, null meaning "compute it here").
+   */
+  startRiccatiCondition?: (request: RiccatiConditionRequest) => () => number | null;
+}
+
+/** An LQR design's Riccati problem and solution: plain data, cloneable. */
+export interface RiccatiConditionRequest {
+  problem: LqrProblem;
+  X: Rows;
+}
+
+/** The Riccati condition estimate of an LQR design, as designLqr would have given it. */
+export function riccatiConditionOf(request: RiccatiConditionRequest): number {
+  return lqrConditionEstimate(request.problem, request.X);
 }
 
 /** Everything the fragility study needs besides the plant rebuild: plain data, cloneable. */
@@ -205,6 +221,8 @@ interface Gains {
   requestedContinuousPoles?: Complex[];
   /** LQR: the Riccati solution X, a Lyapunov (Stein) function of the closed loop A − B·K. */
   riccatiSolution?: Rows;
+  /** LQR: the problem solved, for the condition estimate computed after the gains are in use. */
+  lqrProblem?: LqrProblem;
   details: Record<string, unknown>;
 }
 
@@ -238,7 +256,9 @@ function computeGains(
       problem = { A: augmented.A, B: augmented.B, Q: pad ? reorderForDelay(Qd, n, pad, integratedCount) : Qd, R: weights.Rd, N: Nd };
       weightsNote = 'sampled continuous cost (Van Loan 1978), so the gains change little with T';
     }
-    const lqr = designLqr(problem.A, problem.B, problem.Q, problem.R, problem.N, model.domain);
+    // The condition estimate (two more n×n Schur-form solves) is left for later: the gains are
+    // needed first, and the estimate can be computed beside the rest of the design.
+    const lqr = designLqr(problem.A, problem.B, problem.Q, problem.R, problem.N, model.domain, { conditionEstimate: false });
     if (!lqr.ok || !lqr.K) {
       out.push(findings.lqrFailure(controller.lqr.range, lqr));
       return null;
@@ -247,6 +267,7 @@ function computeGains(
       K: lqr.K,
       closedLoopPoles: lqr.closedLoopPoles,
       riccatiSolution: lqr.X ?? undefined,
+      lqrProblem: { ...problem, domain: model.domain },
       details: {
         lqr: {
           riccatiResidual: lqr.residual,
@@ -418,6 +439,9 @@ export function designController(
   report.K = Kx;
   report.Ki = integrated.length ? Ki : null;
   report.closedLoopPoles = gains.closedLoopPoles;
+  // The LQR condition estimate needs only the problem and X: hand it over before anything else.
+  const conditionRequest: RiccatiConditionRequest | null = gains.lqrProblem && gains.riccatiSolution ? { problem: gains.lqrProblem, X: gains.riccatiSolution } : null;
+  const pendingCondition = conditionRequest && context.startRiccatiCondition ? context.startRiccatiCondition(conditionRequest) : null;
   Object.assign(report.details, gains.details, {
     designModel: model.domain === 'discrete' ? { Phi: model.A, Gamma: model.B, delayStates: model.delayStates } : undefined,
   });
@@ -584,6 +608,12 @@ export function designController(
         model.T ?? 1,
       );
     }
+  }
+
+  if (conditionRequest) {
+    const lqrDetails = report.details.lqr as { conditionEstimate: number } | undefined;
+    const estimate = pendingCondition?.() ?? riccatiConditionOf(conditionRequest);
+    if (lqrDetails) lqrDetails.conditionEstimate = estimate;
   }
 
   report.implementation = implementationRecord(plant, model, report, observerInfo, x0, u0, y0, integrated, tracked);

@@ -12,7 +12,15 @@
 // has gain margin [½, ∞) and phase margin ≥ 60° (Safonov & Athans 1977, from the return
 // difference inequality). Nowhere else (discrete, cross weights, observers) do they hold; there
 // the engine computes the actual margins (margins.ts).
-import { eigenvalues, solveContinuousRiccati, solveDiscreteRiccati, solveLinear, sortComplex } from '../numeric';
+import {
+  continuousRiccatiConditionEstimate,
+  discreteRiccatiConditionEstimate,
+  eigenvalues,
+  solveContinuousRiccati,
+  solveDiscreteRiccati,
+  solveLinear,
+  sortComplex,
+} from '../numeric';
 import type { Complex, Rows } from '../numeric/types';
 import { analyzeControllability, analyzeObservability, classifyEigenvalue, eigenvalueTolerance } from './structure';
 import { checkPositiveDefinite, checkPositiveSemidefinite } from './weightChecks';
@@ -53,6 +61,30 @@ function isZero(M: Rows | undefined): boolean {
   return !M || M.every((row) => row.every((value) => value === 0));
 }
 
+export interface LqrOptions {
+  /**
+   * false: the result's conditionEstimate is NaN, to be computed later by
+   * `lqrConditionEstimate` (same value) once the gain is in use elsewhere.
+   */
+  conditionEstimate?: boolean;
+}
+
+/** The LQR problem data, plain and cloneable (for computing the condition estimate apart). */
+export interface LqrProblem {
+  A: Rows;
+  B: Rows;
+  Q: Rows;
+  R: Rows;
+  N?: Rows;
+  domain: 'continuous' | 'discrete';
+}
+
+/** The Riccati condition estimate designLqr leaves out with `conditionEstimate: false`. */
+export function lqrConditionEstimate(problem: LqrProblem, X: Rows): number {
+  const { A, B, Q, R, N, domain } = problem;
+  return domain === 'continuous' ? continuousRiccatiConditionEstimate(A, B, Q, R, N, X) : discreteRiccatiConditionEstimate(A, B, Q, R, N, X);
+}
+
 export function designLqr(
   A: Rows,
   B: Rows,
@@ -60,6 +92,7 @@ export function designLqr(
   R: Rows,
   N: Rows | undefined,
   domain: 'continuous' | 'discrete',
+  options: LqrOptions = {},
 ): LqrResult {
   const n = A.length;
   const m = n === 0 ? 0 : (B[0]?.length ?? 0);
@@ -116,8 +149,8 @@ export function designLqr(
 
   const solution =
     domain === 'continuous'
-      ? solveContinuousRiccati(A, B, Q, R, N)
-      : solveDiscreteRiccati(A, B, Q, R, N);
+      ? solveContinuousRiccati(A, B, Q, R, N, { conditionEstimate: options.conditionEstimate })
+      : solveDiscreteRiccati(A, B, Q, R, N, { conditionEstimate: options.conditionEstimate });
   const classicalMarginsApply = domain === 'continuous' && isDiagonal(R) && isZero(N);
   if (!solution.ok || !solution.X) {
     const structural = structuralFailure();

@@ -2,9 +2,10 @@
 // analysis splits cleanly: the plant reports need only the text, and a controller's fragility
 // study (a dozen eigenvalue problems of the perturbed loop) needs only the text plus the gains
 // and prescaler. So the analysis worker (the coordinator) designs the controllers while this
-// helper, holding its own parse of the same text, computes the plant reports and, as each
-// controller's gains arrive, its fragility study. Answers are the same pure functions of the
-// text and settings as in one thread; the coordinator computes anything the helper cannot give.
+// helper, holding its own parse of the same text, computes the plant reports, rebuilds the plants
+// the fragility studies will need, and, as each controller's gains arrive, its fragility study and
+// (LQR) the Riccati condition estimate. Answers are the same pure functions of the text and
+// settings as in one thread; the coordinator computes anything the helper cannot give.
 //
 // The coordinator waits synchronously (its analysis is one synchronous call): the helper posts
 // each answer on a MessagePort and then bumps a shared counter that the coordinator sleeps on
@@ -15,7 +16,7 @@
 // answer, never the answer: results do not depend on machine load.
 import { type MessagePort, receiveMessageOnPort } from 'node:worker_threads';
 import { checkText, fragilityOf, plantReportsOf, prepareFragility, type AnalysisHelper, type FastCheck } from '../analyze';
-import type { RebuiltPlants } from '../control/controllerDesign';
+import { riccatiConditionOf, type RebuiltPlants, type RiccatiConditionRequest } from '../control/controllerDesign';
 import type { FragilityRequest } from '../control/controllerDesign';
 import type { FragilityResult } from '../control/fragility';
 import type { PlantReport } from '../control/design';
@@ -32,11 +33,13 @@ export const HELPER_CELLS = 3;
 
 export type ToHelper =
   | { kind: 'start'; job: number; text: string; settings: Partial<AnalysisSettings> }
-  | { kind: 'fragility'; job: number; controllerIndex: number; request: FragilityRequest };
+  | { kind: 'fragility'; job: number; controllerIndex: number; request: FragilityRequest }
+  | { kind: 'condition'; job: number; controllerIndex: number; request: RiccatiConditionRequest };
 
 export type FromHelper =
   | { kind: 'plants'; job: number; reports: PlantReport[] | null }
-  | { kind: 'fragility'; job: number; controllerIndex: number; result: FragilityResult | null };
+  | { kind: 'fragility'; job: number; controllerIndex: number; result: FragilityResult | null }
+  | { kind: 'condition'; job: number; controllerIndex: number; value: number | null };
 
 /**
  * The helper thread's side of one link: answers every request of the current job, in order.
@@ -73,6 +76,17 @@ export function serveAsHelper(port: MessagePort, cells: Int32Array, log: (messag
         log(`analysis helper: preparing fragility plants failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
       }
       traceMark('helper: fragility plants prepared');
+      return;
+    }
+    if (message.kind === 'condition') {
+      let value: number | null = null;
+      try {
+        value = riccatiConditionOf(message.request);
+      } catch (error) {
+        log(`analysis helper: condition estimate failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
+      }
+      traceMark('helper: condition estimate done');
+      answer({ kind: 'condition', job: message.job, controllerIndex: message.controllerIndex, value });
       return;
     }
     let result: FragilityResult | null = null;
@@ -148,6 +162,16 @@ export function helperForJob(
           (message): message is Extract<FromHelper, { kind: 'fragility' }> => message.kind === 'fragility' && message.controllerIndex === controllerIndex,
         );
         return answer?.result ?? null;
+      };
+    },
+    startRiccatiCondition: (controllerIndex, request) => {
+      const sent = started && send({ kind: 'condition', job, controllerIndex, request });
+      return () => {
+        if (!sent) return null;
+        const answer = waitFor(
+          (message): message is Extract<FromHelper, { kind: 'condition' }> => message.kind === 'condition' && message.controllerIndex === controllerIndex,
+        );
+        return answer?.value ?? null;
       };
     },
   };

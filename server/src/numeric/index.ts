@@ -26,12 +26,13 @@ export {
 } from './lyapunov';
 export { matrixSign, matrixSignDense, type MatrixSignResult } from './matrixSign';
 export {
+  continuousRiccatiConditionEstimate,
   solveContinuousRiccati,
   type ContinuousRiccatiOptions,
   type RiccatiFailure,
   type RiccatiSolution,
 } from './riccatiContinuous';
-export { solveDiscreteRiccati, type DiscreteRiccatiOptions } from './riccatiDiscrete';
+export { discreteRiccatiConditionEstimate, solveDiscreteRiccati, type DiscreteRiccatiOptions } from './riccatiDiscrete';
 export {
   eigenvaluesByQz,
   finiteGeneralizedEigenvalues,

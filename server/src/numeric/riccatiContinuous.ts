@@ -21,6 +21,7 @@ import {
 import { luFactor, luSolveDense, reciprocalConditionEstimate } from './lu';
 import { solveLyapunovContinuousDense } from './lyapunov';
 import { matrixSignDense } from './matrixSign';
+import { eigenvaluesWithStatus } from './eigenvectors';
 import { eigenvaluesOfQuasiTriangular, realSchurDense, type RealSchurDense } from './schur';
 import { orderedRealSchurDense } from './schurReorder';
 import type { Complex, Rows } from './types';
@@ -278,6 +279,12 @@ function signFunctionSolution(H: Dense, n: number): Dense | null {
 export interface ContinuousRiccatiOptions {
   /** 'schur' (default, sign function only as fallback) or 'sign' to use the sign function directly. */
   method?: 'schur' | 'sign';
+  /**
+   * false: leave the condition estimate out (NaN) and take the closed-loop eigenvalues from an
+   * eigenvalue-only QR, so the estimate can be computed elsewhere or later by
+   * `continuousRiccatiConditionEstimate` (same value) while the gain is already in use.
+   */
+  conditionEstimate?: boolean;
 }
 
 export function solveContinuousRiccati(
@@ -361,13 +368,22 @@ export function solveContinuousRiccati(
   }
 
   // K = R⁻¹(BᵀX + Nᵀ); closed loop A − BK.
-  const gain = multiplyDense(Rinv, combine(multiplyDense(transposeDense(inputs.B), X), 1, transposeDense(inputs.N), 1));
-  const closedLoop = combine(inputs.A, 1, multiplyDense(inputs.B, gain), -1);
-  // One Schur form of the closed loop's transpose serves both its eigenvalues and the condition
-  // estimate's Lyapunov solve.
-  const closedLoopSchur = realSchurDense(transposeDense(closedLoop));
-  const closedLoopEigenvalues = closedLoopSchur.eigenvalues;
-  const conditionEstimate = continuousConditionEstimate(closedLoop, Abar, G, Qbar, X, closedLoopSchur);
+  const { gain, closedLoop } = gainAndClosedLoop(inputs, Rinv, X);
+  let closedLoopEigenvalues: Complex[];
+  let converged: boolean;
+  let conditionEstimate = NaN;
+  if (options.conditionEstimate === false) {
+    const outcome = eigenvaluesWithStatus(denseToRows(closedLoop));
+    closedLoopEigenvalues = outcome.values;
+    converged = outcome.converged;
+  } else {
+    // One Schur form of the closed loop's transpose serves both its eigenvalues and the condition
+    // estimate's Lyapunov solve.
+    const closedLoopSchur = realSchurDense(transposeDense(closedLoop));
+    closedLoopEigenvalues = closedLoopSchur.eigenvalues;
+    converged = closedLoopSchur.converged;
+    conditionEstimate = continuousConditionEstimate(closedLoop, Abar, G, Qbar, X, closedLoopSchur);
+  }
   const result: RiccatiSolution = {
     X: denseToRows(X),
     gain: denseToRows(gain),
@@ -377,9 +393,30 @@ export function solveContinuousRiccati(
     newtonSteps,
     conditionEstimate,
   };
-  if (!closedLoopSchur.converged) return { ...result, ok: false, failure: 'no-convergence' };
+  if (!converged) return { ...result, ok: false, failure: 'no-convergence' };
   if (!closedLoopEigenvalues.every((lambda) => lambda.re < 0)) return { ...result, ok: false, failure: 'not-stabilisable' };
   return result;
+}
+
+function gainAndClosedLoop(inputs: RiccatiInputs, Rinv: Dense, X: Dense): { gain: Dense; closedLoop: Dense } {
+  const gain = multiplyDense(Rinv, combine(multiplyDense(transposeDense(inputs.B), X), 1, transposeDense(inputs.N), 1));
+  return { gain, closedLoop: combine(inputs.A, 1, multiplyDense(inputs.B, gain), -1) };
+}
+
+/**
+ * The condition estimate `solveContinuousRiccati` gives (see RiccatiSolution.conditionEstimate),
+ * for a solution X it returned with `conditionEstimate: false`: the same value, computed apart.
+ */
+export function continuousRiccatiConditionEstimate(A: Rows, B: Rows, Q: Rows, R: Rows, N: Rows | undefined, X: Rows): number {
+  const inputs = readRiccatiInputs(A, B, Q, R, N);
+  if (inputs === null || X.length !== inputs.n) return Infinity;
+  const Rinv = inverseIfPositiveDefinite(inputs.R);
+  if (Rinv === null) return Infinity;
+  if (inputs.n === 0) return 0;
+  const { Abar, Qbar, G } = foldCrossTerm(inputs.A, inputs.B, inputs.Q, inputs.N, Rinv);
+  const solution = denseFromRows(X);
+  const { closedLoop } = gainAndClosedLoop(inputs, Rinv, solution);
+  return continuousConditionEstimate(closedLoop, Abar, G, Qbar, solution, realSchurDense(transposeDense(closedLoop)));
 }
 
 function continuousConditionEstimate(closedLoop: Dense, Abar: Dense, G: Dense, Qbar: Dense, X: Dense, transposedSchur: RealSchurDense): number {

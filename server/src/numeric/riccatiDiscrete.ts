@@ -17,11 +17,13 @@ import {
   multiplyDense,
   normFrobeniusDense,
   transposeDense,
+  denseFromRows,
   denseToRows,
 } from './dense';
 import { luFactor, luSolveDense, reciprocalConditionEstimate } from './lu';
 import { solveLyapunovDiscreteDense } from './lyapunov';
 import {
+  type RiccatiInputs,
   type RiccatiSolution,
   allFinite,
   combine,
@@ -31,6 +33,7 @@ import {
   readRiccatiInputs,
   symmetrisedDense,
 } from './riccatiContinuous';
+import { eigenvaluesWithStatus } from './eigenvectors';
 import { realSchurDense } from './schur';
 import type { Rows } from './types';
 import { countIterations, noteNonConvergence } from './iterationCount';
@@ -115,6 +118,11 @@ function structurePreservingDoubling(
 export interface DiscreteRiccatiOptions {
   /** Refinement steps allowed after the doubling (default 10; 0 reports the raw SDA result). */
   maxNewtonSteps?: number;
+  /**
+   * false: leave the condition estimate out (NaN) and take the closed-loop eigenvalues from an
+   * eigenvalue-only QR; `discreteRiccatiConditionEstimate` gives the same estimate apart.
+   */
+  conditionEstimate?: boolean;
 }
 
 /**
@@ -165,13 +173,18 @@ export function solveDiscreteRiccati(
     newtonSteps++;
   }
 
-  // K = (R + BᵀXB)⁻¹(BᵀXA + Nᵀ)
-  const Bt = transposeDense(inputs.B);
-  const S = combine(Rsym, 1, multiplyDense(multiplyDense(Bt, X), inputs.B), 1);
-  const gain = luSolveDense(luFactor(S), combine(multiplyDense(multiplyDense(Bt, X), inputs.A), 1, transposeDense(inputs.N), 1));
-  const closedLoop = combine(inputs.A, 1, multiplyDense(inputs.B, gain), -1);
-  const closedLoopSchur = realSchurDense(closedLoop);
-  const closedLoopEigenvalues = closedLoopSchur.eigenvalues;
+  const { gain, closedLoop } = gainAndClosedLoop(inputs, Rsym, X);
+  let closedLoopEigenvalues;
+  let converged: boolean;
+  if (options.conditionEstimate === false) {
+    const outcome = eigenvaluesWithStatus(denseToRows(closedLoop));
+    closedLoopEigenvalues = outcome.values;
+    converged = outcome.converged;
+  } else {
+    const closedLoopSchur = realSchurDense(closedLoop);
+    closedLoopEigenvalues = closedLoopSchur.eigenvalues;
+    converged = closedLoopSchur.converged;
+  }
   const result: RiccatiSolution = {
     X: denseToRows(X),
     gain: denseToRows(gain),
@@ -179,7 +192,7 @@ export function solveDiscreteRiccati(
     closedLoopEigenvalues,
     ok: true,
     newtonSteps,
-    conditionEstimate: discreteConditionEstimate(terms.closedLoop, Abar, G, Qbar, X),
+    conditionEstimate: options.conditionEstimate === false ? NaN : discreteConditionEstimate(terms.closedLoop, Abar, G, Qbar, X),
   };
   if (!allFinite(X, gain)) return { ...result, ok: false, failure: 'no-convergence' };
   // Eigenvalues within √ε·max(1, ‖A‖_F) of the unit circle count as on it (a double eigenvalue
@@ -188,8 +201,32 @@ export function solveDiscreteRiccati(
   const radius = Math.max(...closedLoopEigenvalues.map((lambda) => Math.hypot(lambda.re, lambda.im)));
   if (Math.abs(radius - 1) <= circleTolerance) return { ...result, ok: false, failure: 'unit-circle-eigenvalues' };
   if (!(radius < 1)) return { ...result, ok: false, failure: 'not-stabilisable' };
-  if (!closedLoopSchur.converged || !doubling.converged) return { ...result, ok: false, failure: 'no-convergence' };
+  if (!converged || !doubling.converged) return { ...result, ok: false, failure: 'no-convergence' };
   return result;
+}
+
+/** K = (R + BᵀXB)⁻¹(BᵀXA + Nᵀ) and the closed loop A − BK. */
+function gainAndClosedLoop(inputs: RiccatiInputs, Rsym: Dense, X: Dense): { gain: Dense; closedLoop: Dense } {
+  const Bt = transposeDense(inputs.B);
+  const S = combine(Rsym, 1, multiplyDense(multiplyDense(Bt, X), inputs.B), 1);
+  const gain = luSolveDense(luFactor(S), combine(multiplyDense(multiplyDense(Bt, X), inputs.A), 1, transposeDense(inputs.N), 1));
+  return { gain, closedLoop: combine(inputs.A, 1, multiplyDense(inputs.B, gain), -1) };
+}
+
+/**
+ * The condition estimate `solveDiscreteRiccati` gives, for a solution X it returned with
+ * `conditionEstimate: false`: the same value, computed apart.
+ */
+export function discreteRiccatiConditionEstimate(A: Rows, B: Rows, Q: Rows, R: Rows, N: Rows | undefined, X: Rows): number {
+  const inputs = readRiccatiInputs(A, B, Q, R, N);
+  if (inputs === null || X.length !== inputs.n) return Infinity;
+  const Rinv = inverseIfPositiveDefinite(inputs.R);
+  if (Rinv === null) return Infinity;
+  if (inputs.n === 0) return 0;
+  const { Abar, Qbar, G } = foldCrossTerm(inputs.A, inputs.B, inputs.Q, inputs.N, Rinv);
+  const solution = denseFromRows(X);
+  const terms = discreteTerms(Abar, inputs.B, symmetrisedDense(inputs.R), Qbar, solution);
+  return terms === null ? Infinity : discreteConditionEstimate(terms.closedLoop, Abar, G, Qbar, solution);
 }
 
 /**
