@@ -6,6 +6,8 @@
 //   - hover latency while a 200-state model analyses (median).
 // `--timeline [--states N]` instead prints where the time of one N-state analysis (default 100) goes, per thread: median
 // milliseconds from the coordinator's job start to each mark of server/src/lsp/trace.ts.
+// `--compare DIR` instead measures this build against the build in another checkout DIR (its
+// dist/server.cjs), 100 states, in alternating blocks of 50 edits, and prints both medians.
 // `--soak N` instead replays N seeded random edits (default 10,000) with requests in between
 // and reports whether the server stayed up and answered everything.
 import { spawn } from 'node:child_process';
@@ -29,8 +31,8 @@ const option = (name, fallback) => {
   return index >= 0 && args[index + 1] !== undefined ? Number(args[index + 1]) : fallback;
 };
 
-function startSession(settings, env = {}) {
-  const child = spawn(process.execPath, [serverBundle, '--stdio'], { cwd: root, stdio: ['pipe', 'pipe', 'pipe'], env: { ...process.env, ...env } });
+function startSession(settings, env = {}, bundle = serverBundle) {
+  const child = spawn(process.execPath, [bundle, '--stdio'], { cwd: root, stdio: ['pipe', 'pipe', 'pipe'], env: { ...process.env, ...env } });
   const connection = rpc.createMessageConnection(new rpc.StreamMessageReader(child.stdout), new rpc.StreamMessageWriter(child.stdin));
   const listeners = new Set();
   const emit = (event) => listeners.forEach((listener) => listener(event));
@@ -123,8 +125,8 @@ const percentile = (values, p) => {
 };
 const ms = (value) => (Number.isFinite(value) ? value.toFixed(1) : '—');
 
-async function measureEdits(n, edits, env = {}, firstEdit = 0) {
-  const session = startSession({ debounceMs: 0 }, env);
+async function measureEdits(n, edits, env = {}, firstEdit = 0, bundle = serverBundle) {
+  const session = startSession({ debounceMs: 0 }, env, bundle);
   await session.initialize();
   const uri = `file:///bench/rod${n}.plant`;
   const text = ladderModel(n);
@@ -287,7 +289,24 @@ async function printTimeline(n, edits) {
   console.log(`${ms(percentile(full, 50)).padStart(8)}  didChange → full diagnostics (client side)`);
 }
 
-if (args.includes('--timeline')) {
+async function compareWith(otherRoot, n, edits) {
+  const otherBundle = join(otherRoot, 'dist', 'server.cjs');
+  if (!existsSync(otherBundle)) throw new Error(`${otherBundle} is missing: build that checkout first`);
+  const here = [];
+  const there = [];
+  for (let block = 0; block < Math.ceil(edits / 50); block++) {
+    there.push(...(await measureEdits(n, 50, {}, 2000 + block * 50, otherBundle)).full);
+    here.push(...(await measureEdits(n, 50, {}, 2000 + block * 50)).full);
+  }
+  const hereMedian = percentile(here, 50);
+  const thereMedian = percentile(there, 50);
+  console.log(`${n} states, alternating blocks of 50 edits, full p50: this build ${ms(hereMedian)} ms, ${otherRoot} ${ms(thereMedian)} ms (ratio ${(hereMedian / thereMedian).toFixed(2)}; ${here.length} edits each)`);
+  console.log(`  p95: this build ${ms(percentile(here, 95))} ms, other ${ms(percentile(there, 95))} ms`);
+}
+
+if (args.includes('--compare')) {
+  await compareWith(args[args.indexOf('--compare') + 1], option('--states', 100), option('--edits', 200));
+} else if (args.includes('--timeline')) {
   await printTimeline(option('--states', 100), option('--edits', 40));
 } else if (args.includes('--soak')) {
   await runSoak(option('--soak', 10_000) || 10_000);
