@@ -408,15 +408,31 @@ function gainAndClosedLoop(inputs: RiccatiInputs, Rinv: Dense, X: Dense): { gain
  * for a solution X it returned with `conditionEstimate: false`: the same value, computed apart.
  */
 export function continuousRiccatiConditionEstimate(A: Rows, B: Rows, Q: Rows, R: Rows, N: Rows | undefined, X: Rows): number {
+  const data = riccatiSolutionData(A, B, Q, R, N, X);
+  if (typeof data === 'number') return data;
+  const { closedLoop } = gainAndClosedLoop(data.inputs, data.Rinv, data.solution);
+  return continuousConditionEstimate(closedLoop, data.Abar, data.G, data.Qbar, data.solution, realSchurDense(transposeDense(closedLoop)));
+}
+
+/**
+ * The data of a Riccati equation and a solution X of it, as the solvers form them (for computing
+ * a solution's condition estimate apart); a number when that is already the estimate (invalid
+ * data: Infinity; no states: 0).
+ */
+export function riccatiSolutionData(
+  A: Rows,
+  B: Rows,
+  Q: Rows,
+  R: Rows,
+  N: Rows | undefined,
+  X: Rows,
+): number | { inputs: RiccatiInputs; Rinv: Dense; Abar: Dense; Qbar: Dense; G: Dense; solution: Dense } {
   const inputs = readRiccatiInputs(A, B, Q, R, N);
   if (inputs === null || X.length !== inputs.n) return Infinity;
   const Rinv = inverseIfPositiveDefinite(inputs.R);
   if (Rinv === null) return Infinity;
   if (inputs.n === 0) return 0;
-  const { Abar, Qbar, G } = foldCrossTerm(inputs.A, inputs.B, inputs.Q, inputs.N, Rinv);
-  const solution = denseFromRows(X);
-  const { closedLoop } = gainAndClosedLoop(inputs, Rinv, solution);
-  return continuousConditionEstimate(closedLoop, Abar, G, Qbar, solution, realSchurDense(transposeDense(closedLoop)));
+  return { inputs, Rinv, ...foldCrossTerm(inputs.A, inputs.B, inputs.Q, inputs.N, Rinv), solution: denseFromRows(X) };
 }
 
 function continuousConditionEstimate(closedLoop: Dense, Abar: Dense, G: Dense, Qbar: Dense, X: Dense, transposedSchur: RealSchurDense): number {

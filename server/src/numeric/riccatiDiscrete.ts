@@ -17,7 +17,6 @@ import {
   multiplyDense,
   normFrobeniusDense,
   transposeDense,
-  denseFromRows,
   denseToRows,
 } from './dense';
 import { luFactor, luSolveDense, reciprocalConditionEstimate } from './lu';
@@ -31,6 +30,7 @@ import {
   foldCrossTerm,
   inverseIfPositiveDefinite,
   readRiccatiInputs,
+  riccatiSolutionData,
   symmetrisedDense,
 } from './riccatiContinuous';
 import { eigenvaluesWithStatus } from './eigenvectors';
@@ -218,15 +218,10 @@ function gainAndClosedLoop(inputs: RiccatiInputs, Rsym: Dense, X: Dense): { gain
  * `conditionEstimate: false`: the same value, computed apart.
  */
 export function discreteRiccatiConditionEstimate(A: Rows, B: Rows, Q: Rows, R: Rows, N: Rows | undefined, X: Rows): number {
-  const inputs = readRiccatiInputs(A, B, Q, R, N);
-  if (inputs === null || X.length !== inputs.n) return Infinity;
-  const Rinv = inverseIfPositiveDefinite(inputs.R);
-  if (Rinv === null) return Infinity;
-  if (inputs.n === 0) return 0;
-  const { Abar, Qbar, G } = foldCrossTerm(inputs.A, inputs.B, inputs.Q, inputs.N, Rinv);
-  const solution = denseFromRows(X);
-  const terms = discreteTerms(Abar, inputs.B, symmetrisedDense(inputs.R), Qbar, solution);
-  return terms === null ? Infinity : discreteConditionEstimate(terms.closedLoop, Abar, G, Qbar, solution);
+  const data = riccatiSolutionData(A, B, Q, R, N, X);
+  if (typeof data === 'number') return data;
+  const terms = discreteTerms(data.Abar, data.inputs.B, symmetrisedDense(data.inputs.R), data.Qbar, data.solution);
+  return terms === null ? Infinity : discreteConditionEstimate(terms.closedLoop, data.Abar, data.G, data.Qbar, data.solution);
 }
 
 /**
