@@ -39,6 +39,8 @@ export interface ControlFixture {
   }[];
   sampledCost: { n: number; m: number; T: number; A: Rows; B: Rows; Q: Rows; R: Rows; N: Rows; Qd: Rows; Rd: Rows; Nd: Rows }[];
   stepResponse: { n: number; A: Rows; B: Rows; C: Rows; K: Rows; Nr: number; t: number[]; y: number[] }[];
+  /** Random stable loops of 30 and 64 states (K = 0: A is the closed loop), long enough for the block recursion. */
+  stepResponseLarge: { n: number; A: Rows; B: Rows; C: Rows; K: Rows; Nr: number; t: number[]; y: number[] }[];
 }
 
 export function multiply(a: Rows, b: Rows): Rows {

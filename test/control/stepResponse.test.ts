@@ -3,9 +3,13 @@ import { simulateStepResponses } from '../../server/src/control/stepResponse';
 import { reference } from './controlTestHelpers';
 
 describe('exact linear step response', () => {
-  it('matches scipy.signal.lsim of the closed loop (A − BK, B·Nr, C)', () => {
+  it.each([
+    ['small loops, stepped state by state', 'stepResponse'],
+    ['30- and 64-state loops, by blocks of the recursion', 'stepResponseLarge'],
+  ] as const)('matches scipy.signal.lsim of the closed loop (A − BK, B·Nr, C): %s', (_, section) => {
     // Reference: test/reference/control_response.py; both are exact for a step input.
-    for (const c of reference.stepResponse) {
+    expect(reference[section].length).toBeGreaterThan(1);
+    for (const c of reference[section]) {
       const result = simulateStepResponses({
         domain: 'continuous',
         A: c.A,

@@ -12,7 +12,8 @@ Sources (all SciPy / NumPy, seeded):
   - sampled continuous cost (Van Loan 1978): expm of the 2(n+m) block matrix
     [[-F^T, Qc], [0, F]] with F = [[A, B], [0, 0]], Qc = [[Q, N], [N^T, R]]; cross-checked in this
     script by adaptive quadrature (scipy.integrate.quad_vec) of exp(F^T t) Qc exp(F t) over [0, T];
-  - step responses: scipy.signal.lsim of the closed loop (A - B K, B Nr, C - D K, D Nr) to a step;
+  - step responses: scipy.signal.lsim of the closed loop (A - B K, B Nr, C - D K, D Nr) to a step
+    (small loops; and random stable loops of 30 and 64 states, section stepResponseLarge);
   - frequency responses: C (jwI - A)^-1 B + D by numpy.linalg.solve (LAPACK zgesv).
 """
 import json
@@ -209,11 +210,28 @@ for n in [3, 8, 20, 60]:
         values.append({'re': rows(g.real), 'im': rows(g.imag)})
     frequency.append({'n': n, 'A': rows(a), 'B': rows(b), 'C': rows(c), 'D': rows(d), 'omegas': omegas, 'G': values})
 
+# Larger closed loops (n = 30, 64) for the block recursion of the step response (the loops above
+# are small enough to be stepped state by state): a random stable A_cl, scipy.signal.lsim with a
+# zero-order hold, separate seed so the sections above are unchanged.
+large_rng = np.random.default_rng(20261204)
+large_steps = []
+for n in (30, 64):
+    a = large_rng.standard_normal((n, n)) / np.sqrt(n)
+    a = a - (np.max(np.linalg.eigvals(a).real) + 0.4) * np.eye(n)
+    b = large_rng.standard_normal((n, 1))
+    c = large_rng.standard_normal((1, n))
+    dc = -(c @ np.linalg.solve(a, b))
+    nr = 1.0 / dc[0, 0]
+    t = np.linspace(0, 8.0, 801)
+    _, y, _ = sig.lsim((a, b * nr, c, np.zeros((1, 1))), np.ones_like(t), t, interp=False)
+    large_steps.append({'n': n, 'A': rows(a), 'B': rows(b), 'C': rows(c), 'K': [[0.0] * n], 'Nr': float(nr),
+                        't': [float(v) for v in t[::40]], 'y': [float(v) for v in np.atleast_1d(y)[::40]]})
+
 out = {
     'generator': 'test/reference/control_response.py',
     'scipy': scipy.__version__, 'numpy': np.__version__,
     'zeroOrderHold': zoh, 'lqr': lqr, 'kalman': kalman, 'sampledCost': sampled, 'stepResponse': steps,
-    'frequencyResponse': frequency,
+    'frequencyResponse': frequency, 'stepResponseLarge': large_steps,
 }
 path = os.path.join(os.path.dirname(__file__), '..', 'fixtures', 'reference', 'control_response.json')
 with open(path, 'w') as f:

@@ -7,7 +7,7 @@
 // certificate is never an artefact of rounding. A failed test proves nothing: the caller then
 // computes eigenvalues.
 import { denseFromRows, multiplyDense, normFrobeniusDense, transposeDense, type Dense } from '../numeric/dense';
-import { isPositiveDefiniteShifted } from '../numeric/cholesky';
+import { isPositiveDefiniteShifted } from '../numeric';
 import type { Rows } from '../numeric/types';
 import type { Domain } from './structure';
 

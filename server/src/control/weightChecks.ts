@@ -8,7 +8,7 @@
 //    fails, so the verdict and the reported smallest eigenvalue of a failure are unchanged.
 // Both also require symmetry to ‖M − Mᵀ‖_F ≤ n·ε·‖M‖_F·c.
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
-import { isPositiveDefiniteShifted } from '../numeric/cholesky';
+import { isPositiveDefiniteShifted } from '../numeric';
 import type { Rows } from '../numeric/types';
 
 const SAFETY = 10;

@@ -3,6 +3,7 @@ export * from './types';
 export * from './dense';
 export * from './lu';
 export * from './cholesky';
+export * from './linearRecursion';
 export * from './householder';
 export * from './hessenberg';
 export * from './schur';
