@@ -137,6 +137,7 @@ describe('fragility study with and without the certificate', () => {
     const requests: { index: number; request: FragilityRequest }[] = [];
     const analysis = analyzeFastCheck(checkText(text), {}, {
       helper: { plantReports: () => null, startFragility: (index, request) => (requests.push({ index, request }), () => null) },
+      helperFromStates: 0,
     });
     expect(analysis.diagnostics.filter((d) => d.severity === 'error')).toEqual([]);
     expect(requests.length).toBeGreaterThan(0);

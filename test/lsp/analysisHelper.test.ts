@@ -6,7 +6,7 @@ import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { MessageChannel, Worker } from 'node:worker_threads';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { analyzeFastCheck, checkText, fragilityOf, plantReportsOf, prepareFragility, type AnalysisHelper } from '../../server/src/analyze';
+import { analyzeFastCheck, checkText, fragilityOf, HELPER_FROM_STATES, plantReportsOf, prepareFragility, type AnalysisHelper } from '../../server/src/analyze';
 import { riccatiConditionOf, type FragilityRequest } from '../../server/src/control/controllerDesign';
 import { ANSWERS_POSTED, HELPER_BUSY, HELPER_CELLS, HELPER_GONE } from '../../server/src/lsp/analysisHelper';
 import { cloneable, runSlowAnalysis, type AnalysisReply } from '../../server/src/lsp/slowAnalysis';
@@ -42,7 +42,7 @@ describe('analysis split across a helper (same thread)', () => {
         };
       },
     };
-    const split = analyzeFastCheck(checkText(text), {}, { helper });
+    const split = analyzeFastCheck(checkText(text), {}, { helper, helperFromStates: 0 }); // every sample, however small
     expect(answered).toBeGreaterThan(0);
     expect(cloneable(split.diagnostics)).toEqual(cloneable(single.diagnostics));
     expect(cloneable(split.plants)).toEqual(cloneable(single.plants));
@@ -54,6 +54,7 @@ describe('analysis split across a helper (same thread)', () => {
     const requests: { controllerIndex: number; request: FragilityRequest }[] = [];
     analyzeFastCheck(checkText(sampleText('dosing-tank.plant')), {}, {
       helper: { plantReports: () => null, startFragility: (controllerIndex, request) => (requests.push({ controllerIndex, request }), () => null) },
+      helperFromStates: 0,
     });
     expect(requests.length).toBeGreaterThan(0);
     const prepared = prepareFragility(fast, {});
@@ -70,6 +71,32 @@ describe('analysis split across a helper (same thread)', () => {
     }
   });
 
+  it('the helper is begun only for documents large enough to pay for it', () => {
+    const rod = (n: number) => {
+      const states = Array.from({ length: n }, (_, i) => `T${i + 1}`);
+      const A = states.map((_, i) => states.map((__, j) => (i === j ? '-1' : Math.abs(i - j) === 1 ? '0.5' : '0')).join(', ')).join('; ');
+      return `plant rod {\n  states ${states.join(', ')}\n  inputs q\n  outputs y\n  A = [${A}]\n  B = [${states.map((_, i) => (i ? '0' : '1')).join('; ')}]\n  C = [${states.map((_, i) => (i === n - 1 ? '1' : '0')).join(', ')}]\n}\n`;
+    };
+    const counted = () => {
+      const calls = { begun: 0, asked: 0 };
+      const helper: AnalysisHelper = {
+        begin: () => void calls.begun++,
+        plantReports: () => (calls.asked++, null),
+        startFragility: () => () => null,
+      };
+      return { calls, helper };
+    };
+    const small = counted();
+    analyzeFastCheck(checkText(sampleText('hoist.plant')), {}, { helper: small.helper });
+    expect(small.calls).toEqual({ begun: 0, asked: 0 });
+    const large = counted();
+    analyzeFastCheck(checkText(rod(HELPER_FROM_STATES)), {}, { helper: large.helper });
+    expect(large.calls).toEqual({ begun: 1, asked: 1 });
+    const below = counted();
+    analyzeFastCheck(checkText(rod(HELPER_FROM_STATES - 1)), {}, { helper: below.helper });
+    expect(below.calls).toEqual({ begun: 0, asked: 0 });
+  });
+
   it('the helper analyses nothing beyond maxLiveStates, as the coordinator does not', () => {
     const fast = checkText(sampleText('hoist.plant'));
     const states = Math.max(...fast.model.plants.map((plant) => plant.states.length));
@@ -82,7 +109,7 @@ describe('analysis split across a helper (same thread)', () => {
     const text = sampleText('dosing-tank.plant');
     const single = analyzeFastCheck(checkText(text));
     const silent: AnalysisHelper = { plantReports: () => null, startFragility: () => () => null };
-    const split = analyzeFastCheck(checkText(text), {}, { helper: silent });
+    const split = analyzeFastCheck(checkText(text), {}, { helper: silent, helperFromStates: 0 });
     expect(cloneable(split.diagnostics)).toEqual(cloneable(single.diagnostics));
     expect(cloneable(split.controllers)).toEqual(cloneable(single.controllers));
     expect(split.diagnostics.map((d) => d.code)).toContain('control/fragile-prescaler');
@@ -98,7 +125,8 @@ describe('analysis helper thread', () => {
 
   // As the server does: a fresh channel and fresh cells for every (new) coordinator.
   const linkNewCoordinator = () => {
-    coordinator = new Worker(workerPath);
+    // The samples are small: the coordinator is told to use the helper for them all the same.
+    coordinator = new Worker(workerPath, { env: { ...process.env, LOOPWRIGHT_HELPER_FROM_STATES: '0' } });
     const channel = new MessageChannel();
     const shared = new SharedArrayBuffer(HELPER_CELLS * 4);
     cells = new Int32Array(shared);

@@ -145,8 +145,13 @@ export function helperForJob(
     port.postMessage(message);
     return true;
   };
-  const started = send({ kind: 'start', job, text, settings });
+  // The helper starts on this job only when the coordinator asks (a document large enough for a
+  // second thread to pay); a helper never begun is asked nothing.
+  let started = false;
   return {
+    begin: () => {
+      if (!started) started = send({ kind: 'start', job, text, settings });
+    },
     plantReports: () => {
       traceMark('coordinator: waits for the plant reports');
       if (!started) return null;

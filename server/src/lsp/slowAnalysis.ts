@@ -34,9 +34,10 @@ export function runSlowAnalysis(
   settings: Partial<AnalysisSettings>,
   isCancelled?: () => boolean,
   helper?: AnalysisHelper,
+  helperFromStates?: number,
 ): SlowResult {
   const fast = checkText(text);
-  const analysis = analyzeFastCheck(fast, settings, { isCancelled, helper });
+  const analysis = analyzeFastCheck(fast, settings, { isCancelled, helper, helperFromStates });
   const fastSet = new Set(fast.diagnostics);
   const result: SlowResult = {
     diagnostics: analysis.diagnostics,

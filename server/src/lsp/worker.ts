@@ -26,6 +26,9 @@ if ((workerData as { role?: string } | null)?.role === 'helper') {
   });
 } else {
   let helper: { port: MessagePort; cells: Int32Array } | null = null;
+  // LOOPWRIGHT_HELPER_FROM_STATES overrides the size from which the helper is used (tests use 0).
+  const fromEnvironment = Number(process.env.LOOPWRIGHT_HELPER_FROM_STATES);
+  const helperFromStates = process.env.LOOPWRIGHT_HELPER_FROM_STATES !== undefined && Number.isFinite(fromEnvironment) ? fromEnvironment : undefined;
   parentPort?.on('message', (message: AnalysisJob | HelperLinkMessage) => {
     if ('kind' in message && message.kind === 'link') {
       helper = { port: message.port, cells: new Int32Array(message.cells) };
@@ -36,7 +39,7 @@ if ((workerData as { role?: string } | null)?.role === 'helper') {
     let reply: AnalysisReply;
     try {
       const link = helper ? helperForJob(helper.port, helper.cells, job.job, job.text, job.settings) : undefined;
-      reply = { job: job.job, uri: job.uri, version: job.version, result: runSlowAnalysis(job.text, job.settings, undefined, link) };
+      reply = { job: job.job, uri: job.uri, version: job.version, result: runSlowAnalysis(job.text, job.settings, undefined, link, helperFromStates) };
     } catch (error) {
       reply = { job: job.job, uri: job.uri, version: job.version, error: error instanceof Error ? error.stack ?? error.message : String(error) };
     }
