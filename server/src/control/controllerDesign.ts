@@ -68,7 +68,8 @@ export type FragilityRequest = Omit<FragilityInput, 'rebuild'>;
 export type RebuiltPlants = Map<string, PlantMatrices | null>;
 
 export function rebuiltPlantKey(values: number[]): string {
-  return values.join(' '); // a number's shortest round-trip form: distinct values, distinct keys
+  // A number's shortest round-trip form: distinct values, distinct keys (−0 kept apart from 0).
+  return values.map((value) => (Object.is(value, -0) ? '-0' : String(value))).join(' ');
 }
 
 function designMatricesRebuilder(

@@ -16,8 +16,7 @@
 // answer, never the answer: results do not depend on machine load.
 import { type MessagePort, receiveMessageOnPort } from 'node:worker_threads';
 import { checkText, fragilityOf, plantReportsOf, prepareFragility, type AnalysisHelper, type FastCheck } from '../analyze';
-import { riccatiConditionOf, type RebuiltPlants, type RiccatiConditionRequest } from '../control/controllerDesign';
-import type { FragilityRequest } from '../control/controllerDesign';
+import { riccatiConditionOf, type FragilityRequest, type RebuiltPlants, type RiccatiConditionRequest } from '../control/controllerDesign';
 import type { FragilityResult } from '../control/fragility';
 import type { PlantReport } from '../control/design';
 import type { AnalysisSettings } from '../control/settings';
