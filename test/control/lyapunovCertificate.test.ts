@@ -78,6 +78,37 @@ describe('Lyapunov stability certificate', () => {
     expect(refused).toBeGreaterThan(10); // large ones lose it
   });
 
+  it('a loop differing from the reference loop in a few entries gets the verdict the full product gives', () => {
+    const random = seeded(7);
+    let agreed = 0;
+    let certified = 0;
+    for (const entry of reference.lqr.filter((e) => !e.N)) {
+      const closedLoop = minus(entry.A, product(entry.B, entry.continuousK));
+      const withReference = lyapunovCertificate(entry.continuousX, closedLoop)!;
+      const without = lyapunovCertificate(entry.continuousX)!;
+      expect(withReference.reference).toBeDefined();
+      const scale = Math.max(...closedLoop.flat().map(Math.abs));
+      for (let trial = 0; trial < 30; trial++) {
+        const moved = closedLoop.map((row) => row.slice());
+        const entries = 1 + (trial % 3);
+        for (let e = 0; e < entries; e++) {
+          const i = Math.floor((random() + 0.5) * entry.n) % entry.n;
+          const j = Math.floor((random() + 0.5) * entry.n) % entry.n;
+          moved[i][j] += (trial / 6) * scale * random();
+        }
+        const sparse = certifiesStability(withReference, moved, 'continuous');
+        expect(sparse).toBe(certifiesStability(without, moved, 'continuous'));
+        if (sparse) {
+          certified++;
+          expect(eigenvalues(moved).every((lambda) => lambda.re < 0)).toBe(true);
+        }
+        agreed++;
+      }
+    }
+    expect(agreed).toBeGreaterThan(60);
+    expect(certified).toBeGreaterThan(10);
+  });
+
   it('refuses the stability boundary, where only rounding could decide', () => {
     // Lossless oscillator ẋ = [0 1; −1 0]x: eigenvalues ±i, AᵀX + XA = 0 for X = I.
     const certificate = lyapunovCertificate(identityRows(2))!;

@@ -198,8 +198,9 @@ export function fragilityParameterPoints(input: Pick<FragilityInput, 'nominal' |
 
 export function analyzeFragility(input: FragilityInput): FragilityResult {
   const fraction = input.percent / 100;
-  const certificate = input.lyapunovMatrix ? lyapunovCertificate(input.lyapunovMatrix) : null;
   const nominalPlant = input.rebuild(input.nominal);
+  const nominalLoop = nominalPlant ? prescalerLoop(nominalPlant, input.K, input.N, input.trackedOutputs).A : undefined;
+  const certificate = input.lyapunovMatrix ? lyapunovCertificate(input.lyapunovMatrix, nominalLoop) : null;
   const nominal = evaluate(nominalPlant, input, certificate) ?? { trackingError: null, integralError: null, stable: false, integralStable: null };
   const parameters: ParameterFragility[] = input.nominal.map((_, index) => {
     const at = (sign: number) => evaluate(input.rebuild(movedParameter(input.nominal, index, sign, fraction)), input, certificate);

@@ -16,21 +16,70 @@ const EPS = Number.EPSILON;
 export interface LyapunovCertificate {
   X: Dense;
   normX: number;
+  /**
+   * A reference loop A₀ (the nominal one) with X·A₀ formed once: a loop that differs from it in a
+   * few entries (one parameter moved) then costs X·A₀ + X·Δ over Δ's nonzeros only.
+   */
+  reference?: { A: Dense; XA: Dense; normA: number };
 }
 
 function roundingMargin(n: number): number {
   return (n + 2) * (n + 2) * EPS;
 }
 
-/** The certificate matrix X (symmetric), or null unless X is positive definite beyond rounding. */
-export function lyapunovCertificate(X: Rows): LyapunovCertificate | null {
+/**
+ * The certificate matrix X (symmetric), or null unless X is positive definite beyond rounding.
+ * `referenceLoop`, when given, is the loop most tested loops differ from in few entries.
+ */
+export function lyapunovCertificate(X: Rows, referenceLoop?: Rows): LyapunovCertificate | null {
   const n = X.length;
   if (n === 0 || X.some((row) => row.length !== n)) return null;
   const dense = denseFromRows(X);
   if (!dense.data.every(Number.isFinite)) return null;
   const normX = normFrobeniusDense(dense);
   if (!isPositiveDefiniteShifted(dense.data, n, roundingMargin(n) * normX)) return null;
-  return { X: dense, normX };
+  const certificate: LyapunovCertificate = { X: dense, normX };
+  if (referenceLoop && referenceLoop.length === n && referenceLoop.every((row) => row.length === n)) {
+    const A = denseFromRows(referenceLoop);
+    if (A.data.every(Number.isFinite)) certificate.reference = { A, XA: multiplyDense(dense, A), normA: normFrobeniusDense(A) };
+  }
+  return certificate;
+}
+
+/** Entries of A − A₀ that are not zero: (row, column, value) triples, or null beyond `limit`. */
+function sparseDifference(a: Float64Array, reference: Float64Array, limit: number): { rows: number[]; columns: number[]; values: number[] } | null {
+  const difference = { rows: [] as number[], columns: [] as number[], values: [] as number[] };
+  const n = Math.round(Math.sqrt(a.length));
+  for (let k = 0; k < a.length; k++) {
+    const value = a[k] - reference[k];
+    if (value === 0) continue;
+    if (difference.values.length >= limit) return null;
+    difference.rows.push(Math.floor(k / n));
+    difference.columns.push(k % n);
+    difference.values.push(value);
+  }
+  return difference;
+}
+
+/** X·A, from the reference product when A differs from the reference loop in few entries. */
+function productWithX(certificate: LyapunovCertificate, a: Dense): { XA: Dense; roundingScale: number } {
+  const n = a.rows;
+  const reference = certificate.reference;
+  const difference = reference ? sparseDifference(a.data, reference.A.data, (n * n) >> 3) : null;
+  if (!reference || !difference) return { XA: multiplyDense(certificate.X, a), roundingScale: certificate.normX * normFrobeniusDense(a) };
+  // X·A = X·A₀ + Σ Δ(i, j)·X(:, i) e_jᵀ: n multiply–adds per nonzero of Δ.
+  const XA = { rows: n, cols: n, data: reference.XA.data.slice() };
+  const x = certificate.X.data;
+  let normDifference = 0;
+  for (let k = 0; k < difference.values.length; k++) {
+    const i = difference.rows[k];
+    const j = difference.columns[k];
+    const value = difference.values[k];
+    normDifference += value * value;
+    for (let r = 0; r < n; r++) XA.data[r * n + j] += x[r * n + i] * value;
+  }
+  // Rounding of X·A₀ and of X·Δ and their sum: scaled by ‖X‖(‖A₀‖ + ‖Δ‖) ≥ ‖X‖‖A‖.
+  return { XA, roundingScale: certificate.normX * (reference.normA + Math.sqrt(normDifference)) };
 }
 
 /**
@@ -42,14 +91,16 @@ export function certifiesStability(certificate: LyapunovCertificate, A: Rows, do
   if (A.length !== n || A.some((row) => row.length !== n)) return false;
   const a = denseFromRows(A);
   if (!a.data.every(Number.isFinite)) return false;
-  const normA = normFrobeniusDense(a);
-  const XA = multiplyDense(certificate.X, a);
   const decrease = new Float64Array(n * n); // −(AᵀX + XA), or X − AᵀXA
   let roundingScale: number;
   if (domain === 'continuous') {
+    const product = productWithX(certificate, a);
+    const XA = product.XA;
     for (let i = 0; i < n; i++) for (let j = 0; j <= i; j++) decrease[i * n + j] = -(XA.data[i * n + j] + XA.data[j * n + i]);
-    roundingScale = certificate.normX * normA;
+    roundingScale = product.roundingScale;
   } else {
+    const normA = normFrobeniusDense(a);
+    const XA = multiplyDense(certificate.X, a);
     const AtXA = multiplyDense(transposeDense(a), XA);
     const x = certificate.X.data;
     for (let i = 0; i < n; i++) for (let j = 0; j <= i; j++) decrease[i * n + j] = x[i * n + j] - (AtXA.data[i * n + j] + AtXA.data[j * n + i]) / 2;
