@@ -47,9 +47,8 @@ export function lyapunovCertificate(X: Rows, referenceLoop?: Rows): LyapunovCert
 }
 
 /** Entries of A − A₀ that are not zero: (row, column, value) triples, or null beyond `limit`. */
-function sparseDifference(a: Float64Array, reference: Float64Array, limit: number): { rows: number[]; columns: number[]; values: number[] } | null {
+function sparseDifference(a: Float64Array, reference: Float64Array, n: number, limit: number): { rows: number[]; columns: number[]; values: number[] } | null {
   const difference = { rows: [] as number[], columns: [] as number[], values: [] as number[] };
-  const n = Math.round(Math.sqrt(a.length));
   for (let k = 0; k < a.length; k++) {
     const value = a[k] - reference[k];
     if (value === 0) continue;
@@ -65,7 +64,7 @@ function sparseDifference(a: Float64Array, reference: Float64Array, limit: numbe
 function productWithX(certificate: LyapunovCertificate, a: Dense): { XA: Dense; roundingScale: number } {
   const n = a.rows;
   const reference = certificate.reference;
-  const difference = reference ? sparseDifference(a.data, reference.A.data, (n * n) >> 3) : null;
+  const difference = reference ? sparseDifference(a.data, reference.A.data, n, (n * n) >> 3) : null;
   if (!reference || !difference) return { XA: multiplyDense(certificate.X, a), roundingScale: certificate.normX * normFrobeniusDense(a) };
   // X·A = X·A₀ + Σ Δ(i, j)·X(:, i) e_jᵀ: n multiply–adds per nonzero of Δ.
   const XA = { rows: n, cols: n, data: reference.XA.data.slice() };
