@@ -124,3 +124,32 @@ describe('complex values', () => {
     expect(plantOf(doc, 'm').usable).toBe(false);
   });
 });
+
+describe('matrix entries', () => {
+  // Plain numbers and bare parameters are read without the general evaluator; each entry must
+  // still equal what the evaluator gives for the same expression as a parameter (same source of
+  // truth: the expression rules above), and every problem must still be reported.
+  const entries = ['0', '-0', '2.5', '-3', '+4', 'k', '-k', '+k', '2*k', 'pi', '-pi', '1 ms', '3e2', 'k^2'];
+
+  it('gives each kind of entry the value the evaluator gives it', () => {
+    const states = entries.map((_, i) => `x${i}`).join(', ');
+    const parameterLines = entries.map((text, i) => `  param e${i} = ${text}`).join('\n');
+    const rows = entries.map((text) => entries.map(() => text).join(', ')).join('; ');
+    const doc = check(`plant probe {\n  param k = 1.5\n${parameterLines}\n  states ${states}\n  inputs u\n  outputs y\n  A = [${rows}]\n  B = [${entries.map(() => '1').join('; ')}]\n  C = [${entries.map((_, i) => (i === 0 ? '1' : '0')).join(', ')}]\n}\n`);
+    // Only the unit in a matrix entry is worth a warning here.
+    expect(codes(doc).filter((code) => !code.includes('unit'))).toEqual([]);
+    const values = parameterValues(plantOf(doc, 'probe'));
+    const A = plantOf(doc, 'probe').A;
+    entries.forEach((text, i) => {
+      expect(Object.is(A[i][0], values[`e${i}`]), `${text}: ${A[i][0]} vs ${values[`e${i}`]}`).toBe(true);
+    });
+  });
+
+  it('still reports a non-finite number, an unknown name and a signal in an entry', () => {
+    const doc = check('plant probe {\n  param k = 2\n  states x, v\n  inputs u\n  A = [0, 1e400; kk, -x]\n  B = [0; 1]\n}\n');
+    const found = codes(doc);
+    expect(found.some((code) => code.includes('non-finite'))).toBe(true);
+    expect(found.some((code) => code.includes('unknown-name'))).toBe(true);
+    expect(found.some((code) => code.includes('signal'))).toBe(true);
+  });
+});

@@ -12,7 +12,7 @@ import {
   unknownMatrix,
 } from './diagnostics/index';
 import { majorityLength } from './evaluate';
-import { checkShape, evaluateSourcedMatrix, filled, plural, zeros, type SourcedMatrix } from './matrixSource';
+import { checkShape, evaluateSourcedMatrix, plural, zeros, type SourcedMatrix } from './matrixSource';
 import { parameterScope, type ParameterTable } from './parameters';
 import { addImpliedSignal, describeSignals, type SignalRole, type SignalTable } from './signals';
 import type { Diagnostic, MatrixSource, Rows } from './types';
@@ -139,7 +139,7 @@ export function buildMatrixForm(
       },
       out,
     );
-    if (shapeOk) result[name] = filled(matrix.rows);
+    if (shapeOk) result[name] = zeroWhereMissing(matrix.rows);
   }
 
   const need = (name: MatrixName, shape: string): void => {
@@ -150,4 +150,10 @@ export function buildMatrixForm(
   if (signals.declared.output) need('C', `${plural(p, 'output')} × ${plural(n, 'state')}`);
 
   return { ...result, F: zeros(p, d), sources };
+}
+
+/** The entries with 0 where one had an error (already reported), in place: the rows are this call's own. */
+function zeroWhereMissing(rows: (number | null)[][]): number[][] {
+  for (const row of rows) for (let j = 0; j < row.length; j++) if (row[j] === null) row[j] = 0;
+  return rows as number[][];
 }

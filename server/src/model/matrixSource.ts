@@ -23,15 +23,12 @@ export function evaluateSourcedMatrix(expr: Expr, scope: ValueScope, out: Diagno
   if (expr.kind === 'matrix') {
     const rows = expr.rows.filter((row) => row.entries.length > 0);
     const values = rows.map((row) => row.entries.map((entry) => realEntry(entry, scope, out)));
-    return {
-      rows: values,
-      literal: true,
-      source: {
-        range: expr.range,
-        rowRanges: rows.map((row) => row.range),
-        entryRanges: rows.map((row) => row.entries.map((entry) => entry.range)),
-      },
-    };
+    // Ranges only when a diagnostic or a hover asks for them: a plant is re-checked many times
+    // over (fragility study) and a 100-state A has 10,000 entries.
+    const source = { range: expr.range } as MatrixSource;
+    defineLazyProperty(source, 'rowRanges', () => rows.map((row) => row.range));
+    defineLazyProperty(source, 'entryRanges', () => rows.map((row) => row.entries.map((entry) => entry.range)));
+    return { rows: values, literal: true, source };
   }
   if (expr.kind === 'error') return null;
   const value = evaluateValue(expr, scope, out);
@@ -82,6 +79,8 @@ function plainSourcedMatrix(expr: MatrixExpr, plain: PlainMatrixEntries): Source
 
 /** One real number from an entry expression, or null (reported). */
 export function realEntry(entry: Expr, scope: ValueScope, out: Diagnostic[]): number | null {
+  const direct = directRealValue(entry, scope);
+  if (direct !== undefined) return direct;
   const value = evaluateValue(entry, scope, out);
   if (value === null) return null;
   const z = asScalar(value);
@@ -94,6 +93,31 @@ export function realEntry(entry: Expr, scope: ValueScope, out: Diagnostic[]): nu
     return null;
   }
   return z.re;
+}
+
+/**
+ * The value of the entries most matrices are made of — a plain finite number, a bare scalar
+ * parameter, either negated — without the general evaluator (same result, nothing to report);
+ * undefined for anything else, which the evaluator then handles with its diagnostics.
+ */
+function directRealValue(entry: Expr, scope: ValueScope): number | undefined {
+  let negate = false;
+  let node = entry;
+  if (node.kind === 'unary') {
+    negate = node.op === '-';
+    node = node.operand;
+  }
+  let value: number | undefined;
+  if (node.kind === 'number') {
+    if (node.unit || node.imaginary) return undefined;
+    value = node.value;
+  } else if (node.kind === 'name' && node.name !== 'pi') {
+    const named = scope.lookup(node.name);
+    if (!named || named.kind !== 'scalar' || named.value.im !== 0) return undefined;
+    value = named.value.re;
+  }
+  if (value === undefined || !Number.isFinite(value)) return undefined;
+  return negate ? -value : value;
 }
 
 /** The range from the start of one range to the end of another. */
