@@ -106,4 +106,28 @@ describe('eigenvalues and eigenvectors', () => {
   it('rejects non-finite input without throwing', () => {
     expect(eigenvaluesWithStatus([[NaN, 0], [0, 1]]).converged).toBe(false);
   });
+
+  it('answers a repeated matrix from its recent results, exactly and as a copy', () => {
+    const A = seededMatrix(30, 30, 77);
+    const first = eigenvaluesWithStatus(A);
+    first.values[0].re = 1e9; // a caller changing its copy must not reach the next caller
+    const again = eigenvaluesWithStatus(A.map((row) => row.slice()));
+    expect(again.values[0].re).not.toBe(1e9);
+    // A matrix differing in one entry is computed afresh.
+    const moved = A.map((row) => row.slice());
+    moved[29][29] += 0.5;
+    const expected = eigenvaluesWithStatus(moved).values;
+    const product = moved.map((row) => row.slice());
+    // Sum of eigenvalues = trace (identity, no reference needed).
+    const trace = moved.reduce((sum, row, i) => sum + row[i], 0);
+    expect(Math.abs(expected.reduce((sum, z) => sum + z.re, 0) - trace)).toBeLessThan(1e-10 * 30 * normFrobenius(moved));
+    expect(eigenvaluesWithStatus(product).values).toEqual(expected);
+    // Fresh answers equal the remembered ones bit for bit.
+    const freshOrder = seededMatrix(40, 40, 78);
+    const computed = eigenvaluesWithStatus(freshOrder).values;
+    for (let k = 0; k < 5; k++) eigenvaluesWithStatus(seededMatrix(40, 40, 100 + k)); // pushes it out of the memo
+    expect(eigenvaluesWithStatus(freshOrder).values).toEqual(computed);
+    expect(eigenvaluesWithStatus(A).values).not.toEqual(expected);
+  });
 });
+
