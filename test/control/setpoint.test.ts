@@ -109,6 +109,30 @@ describe('set-point gains', () => {
     expect(Math.abs(result.prescaler![0][0] * delta - 1)).toBeLessThan(1e-6);
   });
 
+  it('square case of 40 states and 3 inputs: closed-loop DC gain × N = I, and [Nx; Nu] solves the Rosenbrock system', () => {
+    const random = seededRandom(20261205);
+    const n = 40;
+    const m = 3;
+    const A = Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => (random() - 0.5) / Math.sqrt(n) - (i === j ? 2 : 0)));
+    const B = Array.from({ length: n }, () => Array.from({ length: m }, () => random() - 0.5));
+    const C = Array.from({ length: m }, () => Array.from({ length: n }, () => random() - 0.5));
+    const D = C.map(() => new Array<number>(m).fill(0));
+    const K = Array.from({ length: m }, () => Array.from({ length: n }, () => 0.1 * (random() - 0.5)));
+    const result = setpointGains(A, B, C, D, [0, 1, 2], K, 'continuous');
+    expect(result.feasibility).toBe('unique');
+    // Identities (no reference needed): G_dc·N = I and A·Nx + B·Nu = 0, C·Nx = I, to ~cond·n·ε.
+    const scale = 1e3 * n * Number.EPSILON * result.conditionNumber;
+    const product = result.closedLoopDcGain!.map((row) => result.prescaler![0].map((_, j) => row.reduce((sum, g, c) => sum + g * result.prescaler![c][j], 0)));
+    product.forEach((row, i) => row.forEach((v, j) => expect(Math.abs(v - (i === j ? 1 : 0))).toBeLessThan(scale)));
+    for (let i = 0; i < n; i++) {
+      for (let j = 0; j < m; j++) {
+        const value = A[i].reduce((sum, a, c) => sum + a * result.Nx![c][j], 0) + B[i].reduce((sum, b, c) => sum + b * result.Nu![c][j], 0);
+        expect(Math.abs(value)).toBeLessThan(scale);
+      }
+    }
+    C.forEach((row, i) => result.Nx![0].forEach((_, j) => expect(Math.abs(row.reduce((sum, c, k) => sum + c * result.Nx![k][j], 0) - (i === j ? 1 : 0))).toBeLessThan(scale)));
+  });
+
   it('SciPy fixture: DC gains of random stable closed loops match a direct solve', () => {
     for (const c of fixture.dcGain) {
       const result = setpointGains(c.A, c.B, c.C, c.D, c.C.map((_: number[], i: number) => i), c.K, 'continuous');

@@ -41,6 +41,14 @@ export interface SetpointResult {
   singularCombination?: number[];
 }
 
+/** M⁺·rhs with M⁺ the pseudo-inverse on the leading `rank` singular values. */
+function minimumNormSolution(M: Rows, rhs: Rows, rank: number): Rows {
+  const { U, s, V } = thinSvd(M);
+  const q = rhs[0]?.length ?? 0;
+  const UtR = Array.from({ length: rank }, (_, c) => Array.from({ length: q }, (_, j) => rhs.reduce((sum, row, i) => sum + U[i][c] * row[j], 0) / s[c]));
+  return V.map((row) => Array.from({ length: q }, (_, j) => row.slice(0, rank).reduce((sum, v, c) => sum + v * UtR[c][j], 0)));
+}
+
 function rosenbrockAtDc(A: Rows, B: Rows, Ct: Rows, Dt: Rows, domain: Domain): Rows {
   const top = A.map((row, i) => [...row.map((v, j) => (domain === 'discrete' && i === j ? v - 1 : v)), ...B[i]]);
   const bottom = Ct.map((row, i) => [...row, ...Dt[i]]);
@@ -68,7 +76,9 @@ export function setpointGains(
   const Ct = trackedOutputs.map((i) => C[i].slice());
   const Dt = trackedOutputs.map((i) => (D[i] ?? new Array<number>(m).fill(0)).slice());
   const M = rosenbrockAtDc(A, B, Ct, Dt, domain);
-  const { U, s, V } = thinSvd(M);
+  // The rank decision needs only the singular values; the vectors are formed below only where the
+  // solve needs them (a wide M, or a rank loss to explain).
+  const s = singularValuesOf(M);
   const tolerance = rankTolerance(s, n + q, n + m);
   const rank = s.filter((v) => v > tolerance).length;
   const top = M.slice(0, n);
@@ -110,10 +120,12 @@ export function setpointGains(
     }
     return { ...base, ...none, feasibility: 'zero-at-dc', singularCombination: best };
   }
-  // [Nx; Nu] = M⁺·[0; I] on the retained singular values.
+  // [Nx; Nu] = M⁺·[0; I]: for a square M of full rank that is M⁻¹·[0; I], by LU with partial
+  // pivoting (backward stable; M is well enough conditioned here, or illConditioned says so);
+  // otherwise on the retained singular values of the thin SVD.
   const rhs = Array.from({ length: n + q }, (_, i) => Array.from({ length: q }, (_, j) => (i === n + j ? 1 : 0)));
-  const UtR = Array.from({ length: rank }, (_, c) => Array.from({ length: q }, (_, j) => rhs.reduce((sum, row, i) => sum + U[i][c] * row[j], 0) / s[c]));
-  const X = V.map((row) => Array.from({ length: q }, (_, j) => row.slice(0, rank).reduce((sum, v, c) => sum + v * UtR[c][j], 0)));
+  const square = q === m && rank === n + q ? solveRows(M, rhs) : null;
+  const X = square && !square.singular ? square.X : minimumNormSolution(M, rhs, rank);
   const Nx = X.slice(0, n);
   const Nu = X.slice(n);
   const prescaler = Nu.map((row, i) => row.map((v, j) => v + K[i].reduce((sum, k, c) => sum + k * Nx[c][j], 0)));
