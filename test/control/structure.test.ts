@@ -80,6 +80,38 @@ describe('controllability staircase', () => {
     TtT.forEach((row, i) => row.forEach((value, j) => expect(value).toBeCloseTo(i === j ? 1 : 0, 12)));
   });
 
+  it('staircase of a 40-state, 2-input pair with a hidden 6-state part: identities TᵀT = I, TᵀAT = Ā, TᵀB = B̄, zero blocks', () => {
+    // Block-triangular [[A11, A12], [0, A22]] with B = [B1; 0] (34 reachable states), turned by a
+    // random orthogonal Q (product of reflectors): the staircase must find dimension 34 again.
+    let seed = 41;
+    const random = () => ((seed = (seed * 16807) % 2147483647) / 2147483647) - 0.5;
+    const n = 40;
+    const reachable = 34;
+    const A0 = Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => (i >= reachable && j < reachable ? 0 : random())));
+    const B0 = Array.from({ length: n }, (_, i) => [0, 1].map(() => (i < reachable ? random() : 0)));
+    let Q = A0.map((_, i) => A0.map((__, j) => (i === j ? 1 : 0)));
+    for (let r = 0; r < 3; r++) {
+      const v = A0.map(() => random());
+      const vv = v.reduce((sum, x) => sum + x * x, 0);
+      Q = multiplyRows(Q, v.map((vi, i) => v.map((vj, j) => (i === j ? 1 : 0) - (2 * vi * vj) / vv)));
+    }
+    const A = multiplyRows(multiplyRows(Q, A0), transposeRows(Q));
+    const B = multiplyRows(Q, B0);
+    const stair = controllabilityStaircase(A, B);
+    expect(stair.controllableDimension).toBe(reachable);
+    const tolerance = 1e3 * n * Number.EPSILON * Math.sqrt(n);
+    const TtT = multiplyRows(transposeRows(stair.T), stair.T);
+    TtT.forEach((row, i) => row.forEach((value, j) => expect(Math.abs(value - (i === j ? 1 : 0))).toBeLessThan(tolerance)));
+    const TtAT = multiplyRows(multiplyRows(transposeRows(stair.T), A), stair.T);
+    TtAT.forEach((row, i) => row.forEach((value, j) => expect(Math.abs(value - stair.Abar[i][j])).toBeLessThan(tolerance * n)));
+    const TtB = multiplyRows(transposeRows(stair.T), B);
+    TtB.forEach((row, i) => row.forEach((value, j) => expect(Math.abs(value - stair.Bbar[i][j])).toBeLessThan(tolerance * n)));
+    for (let i = reachable; i < n; i++) {
+      for (let j = 0; j < reachable; j++) expect(Math.abs(stair.Abar[i][j])).toBeLessThan(tolerance * n);
+      for (let j = 0; j < 2; j++) expect(Math.abs(stair.Bbar[i][j])).toBeLessThan(tolerance * n);
+    }
+  });
+
   it('a complex uncontrollable pair: PBH margin at a complex eigenvalue is ~0', () => {
     const A = [[0, 1, 0], [-4, 0, 0], [0, 0, -1]];
     const result = analyzeControllability(A, [[0], [0], [1]], 'continuous');

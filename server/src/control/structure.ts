@@ -58,13 +58,20 @@ export function controllabilityStaircase(A: Rows, B: Rows, tolerance = structure
     for (let j = 0; j < m; j++) Bb[i * m + j] = B[i][j];
     T[i * n + i] = 1;
   }
+  const columnSums = new Float64Array(n);
   const applyReflector = (v: Float64Array, beta: number, start: number) => {
-    // Left on Ā and B̄ (rows start…n−1), right on Ā and T (columns start…n−1).
-    for (let j = 0; j < n; j++) {
-      let dot = 0;
-      for (let i = start; i < n; i++) dot += v[i - start] * Ab[i * n + j];
-      const f = beta * dot;
-      if (f !== 0) for (let i = start; i < n; i++) Ab[i * n + j] -= f * v[i - start];
+    // Left on Ā and B̄ (rows start…n−1), right on Ā and T (columns start…n−1). The left product
+    // runs along rows (w = vᵀĀ, then Ā −= β·v·w), which row-major storage reads contiguously.
+    columnSums.fill(0);
+    for (let i = start; i < n; i++) {
+      const vi = v[i - start];
+      if (vi === 0) continue;
+      for (let j = 0, k = i * n; j < n; j++, k++) columnSums[j] += vi * Ab[k];
+    }
+    for (let i = start; i < n; i++) {
+      const f = beta * v[i - start];
+      if (f === 0) continue;
+      for (let j = 0, k = i * n; j < n; j++, k++) Ab[k] -= f * columnSums[j];
     }
     for (let j = 0; j < m; j++) {
       let dot = 0;
