@@ -45,6 +45,21 @@ describe('invariantZeros (Emami-Naeini & Van Dooren reduction + QZ)', () => {
     expect(zeros).toHaveLength(0);
   });
 
+  it('a 30-state conduction chain heated at one end, measured at node 20: zeros are the eigenvalues of the last 10 nodes', () => {
+    // For a tridiagonal A, G(s) = c₁·…·c₁₉ · det(sI − A₂₁..₃₀)/det(sI − A), so the zeros are the
+    // eigenvalues of the trailing 10 × 10 block; with diagonal −2 and off-diagonals 1 those are
+    // −2 + 2·cos(jπ/11), j = 1…10 (eigenvalues of a Toeplitz tridiagonal matrix, closed form).
+    // Nineteen reduction passes, one state removed each.
+    const n = 30;
+    const A = Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => (i === j ? -2 : Math.abs(i - j) === 1 ? 1 : 0)));
+    const B = A.map((_, i) => [i === 0 ? 1 : 0]);
+    const C = [A.map((_, j) => (j === 19 ? 1 : 0))];
+    const { zeros, normalRank } = invariantZeros(A, B, C, [[0]]);
+    expect(normalRank).toBe(1);
+    const expected = Array.from({ length: 10 }, (_, j) => ({ re: -2 + 2 * Math.cos(((j + 1) * Math.PI) / 11), im: 0 }));
+    expect(closeSets(zeros, expected, 1e3 * n * EPS)).toBe(true);
+  });
+
   it('non-square: two outputs sharing the factor (s + 2) keep the zero; independent outputs have none', () => {
     const A = [[0, 1], [-3, -4]];
     const B = [[0], [1]];

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { identity, multiply, normFrobenius, subtract, transpose } from '../../server/src/numeric/dense';
-import { qrDecomposition, qrWithPivoting } from '../../server/src/numeric/qr';
+import { applyQFromRight, applyQTranspose, formQ, householderQrDense, qrDecomposition, qrWithPivoting } from '../../server/src/numeric/qr';
+import { denseFromRows, denseToRows } from '../../server/src/numeric/dense';
 import { minimumSingularValue, nullSpace, numericalRank, orthonormalBasis } from '../../server/src/numeric/rank';
 import { conditionNumber2, norm2, singularValues, svd } from '../../server/src/numeric/svd';
 import type { Rows } from '../../server/src/numeric/types';
@@ -30,6 +31,18 @@ describe('Householder QR', () => {
     expect(complete.Q[0].length).toBe(m);
     expect(orthonormalityError(complete.Q)).toBeLessThan(20 * m * EPS);
     expect(normFrobenius(subtract(multiply(complete.Q, complete.R), A))).toBeLessThan(20 * Math.max(m, n) * EPS * normFrobenius(A));
+  });
+
+  it.each([[12, 3], [7, 7], [5, 9]])('applies Qᵀ from the left and Q from the right as the formed Q does (%i×%i factor)', (m, n) => {
+    // Identity: the reflectors applied one by one equal products with the explicit Q (formQ).
+    const factor = householderQrDense(denseFromRows(seededMatrix(m, n, 90 + m)), true);
+    const Q = denseToRows(formQ(factor, m));
+    const left = seededMatrix(m, 4, 91);
+    const right = seededMatrix(6, m, 92);
+    const tolerance = 20 * m * EPS * Math.max(normFrobenius(left), normFrobenius(right));
+    expect(normFrobenius(subtract(denseToRows(applyQTranspose(factor, denseFromRows(left))), multiply(transpose(Q), left)))).toBeLessThan(tolerance);
+    expect(normFrobenius(subtract(denseToRows(applyQFromRight(denseFromRows(right), factor)), multiply(right, Q)))).toBeLessThan(tolerance);
+    expect(() => applyQTranspose(factor, denseFromRows(right))).toThrow();
   });
 
   it('pivoted QR reveals the rank and satisfies A·P = Q·R', () => {

@@ -124,6 +124,68 @@ export function formQ(factor: HouseholderQrDense, columns: number): Dense {
   return { rows: m, cols: columns, data: q };
 }
 
+/** Reflector k of a packed factorisation as a full-length vector v (v[0] = 1) in `into`. */
+function reflectorVector(factor: HouseholderQrDense, k: number, into: Float64Array): number {
+  const { packed } = factor;
+  const length = packed.rows - k;
+  into[0] = 1;
+  for (let i = 1; i < length; i++) into[i] = packed.data[(k + i) * packed.cols + k];
+  return length;
+}
+
+/**
+ * Qᵀ·M for the Q of a packed factorisation (M has as many rows as the factorised matrix): the
+ * reflectors applied one by one, about 4·r·rows·cols flops for r reflectors instead of forming Q.
+ */
+export function applyQTranspose(factor: HouseholderQrDense, M: Dense): Dense {
+  const rows = factor.packed.rows;
+  if (M.rows !== rows) throw new Error(`applyQTranspose: ${M.rows} rows, the factor has ${rows}`);
+  const cols = M.cols;
+  const data = M.data.slice();
+  const v = new Float64Array(rows);
+  const w = new Float64Array(cols);
+  for (let k = 0; k < factor.tau.length; k++) {
+    const t = factor.tau[k];
+    if (t === 0) continue;
+    const length = reflectorVector(factor, k, v);
+    w.fill(0);
+    for (let i = 0; i < length; i++) {
+      const vi = v[i];
+      if (vi === 0) continue;
+      for (let j = 0, o = (k + i) * cols; j < cols; j++, o++) w[j] += vi * data[o];
+    }
+    for (let i = 0; i < length; i++) {
+      const f = t * v[i];
+      if (f === 0) continue;
+      for (let j = 0, o = (k + i) * cols; j < cols; j++, o++) data[o] -= f * w[j];
+    }
+  }
+  return { rows, cols, data };
+}
+
+/** M·Q for the Q of a packed factorisation (M has as many columns as the factorised matrix has rows). */
+export function applyQFromRight(M: Dense, factor: HouseholderQrDense): Dense {
+  const size = factor.packed.rows;
+  if (M.cols !== size) throw new Error(`applyQFromRight: ${M.cols} columns, the factor has ${size} rows`);
+  const rows = M.rows;
+  const data = M.data.slice();
+  const v = new Float64Array(size);
+  for (let k = 0; k < factor.tau.length; k++) {
+    const t = factor.tau[k];
+    if (t === 0) continue;
+    const length = reflectorVector(factor, k, v);
+    for (let i = 0; i < rows; i++) {
+      const offset = i * size + k;
+      let dot = 0;
+      for (let j = 0; j < length; j++) dot += data[offset + j] * v[j];
+      const f = t * dot;
+      if (f === 0) continue;
+      for (let j = 0; j < length; j++) data[offset + j] -= f * v[j];
+    }
+  }
+  return { rows, cols: size, data };
+}
+
 /** The upper-trapezoidal R (rows × n) from a packed factorisation. */
 export function extractR(factor: HouseholderQrDense, rows: number): Dense {
   const { packed } = factor;
