@@ -176,7 +176,18 @@ describe('fragility study with and without the certificate', () => {
       // An LQR design without integral action hands its Riccati solution over; others do not.
       expect(request.lyapunovMatrix !== undefined).toBe(/\blqr\b/.test(text) && !/\bintegral\b/.test(text));
       const fast = checkText(text);
-      expect(fragilityOf(fast, index, request)).toEqual(fragilityOf(fast, index, { ...request, lyapunovMatrix: undefined }));
+      const withCertificate = fragilityOf(fast, index, request)!;
+      const without = fragilityOf(fast, index, { ...request, lyapunovMatrix: undefined })!;
+      // Every verdict and error is the same; the box's worst pole covers only the points the
+      // certificate did not settle (none of them when it settled all).
+      const { worstPole, worstPoint, certified, ...boxVerdicts } = withCertificate.box;
+      const { worstPole: allWorstPole, worstPoint: allWorstPoint, certified: noneCertified, ...allBoxVerdicts } = without.box;
+      expect({ ...withCertificate, box: boxVerdicts }).toEqual({ ...without, box: allBoxVerdicts });
+      expect(noneCertified).toBe(0);
+      expect(allWorstPole).not.toBeNull();
+      if (request.lyapunovMatrix) expect(certified).toBeGreaterThan(0);
+      if (certified === withCertificate.box.points) expect([worstPole, worstPoint]).toEqual([null, null]);
+      if (certified === 0) expect([worstPole, worstPoint]).toEqual([allWorstPole, allWorstPoint]);
     }
   });
 });
