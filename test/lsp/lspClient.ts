@@ -106,8 +106,8 @@ export class LspSession {
 
   configuration: Record<string, unknown> = {};
 
-  static async start(options: { settings?: Record<string, unknown>; configurationPull?: boolean } = {}): Promise<LspSession> {
-    const child = spawn(process.execPath, [serverBundle, '--stdio'], { cwd: root, stdio: ['pipe', 'pipe', 'pipe'] });
+  static async start(options: { settings?: Record<string, unknown>; configurationPull?: boolean; env?: Record<string, string> } = {}): Promise<LspSession> {
+    const child = spawn(process.execPath, [serverBundle, '--stdio'], { cwd: root, stdio: ['pipe', 'pipe', 'pipe'], env: { ...process.env, ...options.env } });
     const session = new LspSession(child);
     session.configuration = options.settings ?? {};
     session.initializeResult = await session.connection.sendRequest('initialize', {

@@ -36,35 +36,47 @@ const models = samples.length > 0 ? samples : [{ name: 'inline', text: INLINE }]
 const TOTAL_EDITS = 1000;
 
 let session: LspSession;
+let earlySession: LspSession;
 
 beforeAll(async () => {
   ensureBuilt();
   session = await LspSession.start({ settings: { debounceMs: 10 } });
+  // No debounce, and every document's slow job started before its fast check (the path large
+  // models take; LOOPWRIGHT_EARLY_SLOW_MS=0 makes every sample take it).
+  earlySession = await LspSession.start({ settings: { debounceMs: 0 }, env: { LOOPWRIGHT_EARLY_SLOW_MS: '0' } });
 });
 
 afterAll(async () => {
   await session?.stop();
+  await earlySession?.stop();
 });
 
+const runs = [
+  ...models.map((model, index) => [`${model.name}, debounce 10 ms`, index, false] as const),
+  ...models.map((model, index) => [`${model.name}, no debounce, slow job first`, index, true] as const),
+];
+
 describe('random-edit soak', () => {
-  it.each(models.map((model, index) => [model.name, index] as const))(
+  it.each(runs)(
     'survives random edits of %s and ends with the diagnostics of a fresh analysis',
-    async (name, index) => {
+    async (_label, index, early) => {
       const model = models[index];
-      const uri = `file:///soak/${name}`;
-      await session.open(uri, model.text);
-      const edits = Math.ceil(TOTAL_EDITS / models.length);
-      const outcome = await soak(session, uri, model.text, edits, 1000 + index);
+      const current = early ? earlySession : session;
+      const uri = `file:///soak/${early ? 'early-' : ''}${model.name}`;
+      await current.open(uri, model.text);
+      const edits = Math.ceil((early ? TOTAL_EDITS / 4 : TOTAL_EDITS) / models.length);
+      const outcome = await soak(current, uri, model.text, edits, (early ? 2000 : 1000) + index);
       expect(outcome.requestFailures).toEqual([]);
-      await session.waitForAnalysis(uri, outcome.finalVersion);
-      expect(session.exitCode).toBeNull();
-      const published = session.lastDiagnostics(uri)!;
+      await current.waitForAnalysis(uri, outcome.finalVersion);
+      expect(current.exitCode).toBeNull();
+      const published = current.lastDiagnostics(uri)!;
       expect(published.version).toBe(outcome.finalVersion);
       const expected = analyze(outcome.finalText).diagnostics.map((d) => toLspDiagnostic(d, uri));
       expect(published.diagnostics).toEqual(JSON.parse(JSON.stringify(expected)));
-      expect(session.stderr.filter((line) => /failed/.test(line))).toEqual([]);
+      expect(current.stderr.filter((line) => /failed/.test(line))).toEqual([]);
+      if (early) expect(current.analysed.some((entry) => entry.uri === uri)).toBe(true);
       // Never a stale publication: versions only grow.
-      const versions = session.published.filter((p) => p.uri === uri).map((p) => p.version ?? 0);
+      const versions = current.published.filter((p) => p.uri === uri).map((p) => p.version ?? 0);
       expect(versions.every((version, i) => i === 0 || version >= versions[i - 1])).toBe(true);
     },
   );

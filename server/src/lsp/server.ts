@@ -66,6 +66,15 @@ const CONTROLLER_DATA_REQUEST = 'loopwright/controllerData';
 const EXPORT_REQUEST = 'loopwright/export';
 const REPORT_REQUEST = 'loopwright/report';
 
+/**
+ * A fast check at least this long (ms) is worth overlapping with the worker's start (no debounce);
+ * LOOPWRIGHT_EARLY_SLOW_MS overrides it (tests use 0 to take that path on every document).
+ */
+const EARLY_SLOW_AFTER_FAST_MS = (() => {
+  const fromEnvironment = Number(process.env.LOOPWRIGHT_EARLY_SLOW_MS);
+  return process.env.LOOPWRIGHT_EARLY_SLOW_MS !== undefined && Number.isFinite(fromEnvironment) ? fromEnvironment : 10;
+})();
+
 interface DocumentState {
   /** The text as the editor has it now. */
   document: TextDocument;
@@ -207,6 +216,10 @@ export function startServer(connection: Connection, options: ServerOptions = {})
   /** Fast checks of the current text, published at once; then the slow analyses are scheduled. */
   function runFast(state: DocumentState): void {
     const started = performance.now();
+    // Without a debounce, a document whose fast check takes long (a large plant) hands its text
+    // to the worker first: the worker's own parse then overlaps this check instead of following it.
+    const startedEarly = settings.debounceMs <= 0 && state.fastDuration >= EARLY_SLOW_AFTER_FAST_MS;
+    if (startedEarly) void analyseSlow(state, state.document.version, state.document.getText());
     try {
       state.fast = checkText(state.document.getText());
     } catch (error) {
@@ -219,7 +232,7 @@ export function startServer(connection: Connection, options: ServerOptions = {})
     state.fastEnded = performance.now();
     state.fastDuration = state.fastEnded - started;
     publish(state, [...state.fast.diagnostics, ...state.carried].sort(byPosition));
-    scheduleSlow(state);
+    if (!startedEarly) scheduleSlow(state);
   }
 
   /** Brings the fast check up to the current text (before answering with edits). */
@@ -237,14 +250,14 @@ export function startServer(connection: Connection, options: ServerOptions = {})
     // Even without debounce, wait one turn: an edit already queued then replaces this one cheaply.
     state.slowTimer = setTimeout(() => {
       state.slowTimer = null;
-      if (documents.get(state.document.uri) === state) void analyseSlow(state);
+      if (documents.get(state.document.uri) === state) void analyseSlow(state, state.fastVersion, state.fast.text);
     }, Math.max(0, settings.debounceMs));
   }
 
-  async function analyseSlow(state: DocumentState): Promise<void> {
+  /** The slow analyses of `text` (version `version`); published only if the document is still at that version and its fast check too. */
+  async function analyseSlow(state: DocumentState, version: number, text: string): Promise<void> {
     const uri = state.document.uri;
-    const version = state.fastVersion;
-    const outcome = await runner.analyse(uri, version, state.fast.text, settings.analysis);
+    const outcome = await runner.analyse(uri, version, text, settings.analysis);
     // A result for an older text is never published.
     if (documents.get(uri) !== state || state.fastVersion !== version || state.document.version !== version) return;
     if ('superseded' in outcome) return;
