@@ -246,3 +246,60 @@ describe('frequency evaluation', () => {
     }
   });
 });
+
+describe('plotted open-loop response of a design', () => {
+  // A three-state chain with a closed form: L(s) = K(sI − A)⁻¹B for A = [0 1 0; 0 0 1; 0 −a −b],
+  // B = [0; 0; 1] is (k₁ + k₂s + k₃s²)/(s³ + bs² + as) (controllable canonical form).
+  const design = (poles: string) => `plant chain {
+  states x1, x2, x3
+  inputs u
+  outputs y
+  A = [0, 1, 0; 0, 0, 1; 0, -2, -3]
+  B = [0; 0; 1]
+  C = [1, 0, 0]
+}
+
+controller hold for chain {
+  poles = [${poles}]
+  track y
+}
+`;
+  const closedForm = (K: number[], omega: number) => {
+    const s = { re: 0, im: omega };
+    const mul = (p: { re: number; im: number }, q: { re: number; im: number }) => ({ re: p.re * q.re - p.im * q.im, im: p.re * q.im + p.im * q.re });
+    const s2 = mul(s, s);
+    const s3 = mul(s2, s);
+    const numerator = { re: K[0] + K[2] * s2.re, im: K[1] * omega };
+    const denominator = { re: s3.re + 3 * s2.re, im: s3.im + 2 * omega };
+    const d = denominator.re ** 2 + denominator.im ** 2;
+    return { re: (numerator.re * denominator.re + numerator.im * denominator.im) / d, im: (numerator.im * denominator.re - numerator.re * denominator.im) / d };
+  };
+
+  it.each([
+    ['-2, -3, -4', false],
+    ['-0.001, -1000, -5', true], // poles over six decades: the grid is thinned to ≤ 400 points
+  ])('poles %s: points on the margin grid, values equal the closed form', async (poles, thinned) => {
+    const { analyze } = await import('../../server/src/analyze');
+    const report = analyze(design(poles)).controllers[0];
+    const margins = report.details.margins as { lowestFrequency: number; highestFrequency: number };
+    const plotted = report.details.frequencyResponse as { omega: number[]; magnitudeDb: number[]; phaseDeg: number[] };
+    const K = report.K![0];
+    const grid = logarithmicGrid(margins.lowestFrequency, margins.highestFrequency, 60);
+    expect(plotted.omega.length).toBeLessThanOrEqual(400);
+    expect(plotted.omega.length < grid.length).toBe(thinned);
+    expect(plotted.omega[0]).toBe(margins.lowestFrequency);
+    expect(plotted.omega[plotted.omega.length - 1]).toBe(margins.highestFrequency);
+    plotted.omega.forEach((omega, k) => {
+      if (k > 0) expect(omega).toBeGreaterThan(plotted.omega[k - 1]);
+      // Every point is one of the 60-per-decade grid's (to rounding of the recomputed grid).
+      expect(Math.min(...grid.map((g) => Math.abs(g - omega) / omega))).toBeLessThan(1e-12);
+      const value = closedForm(K, omega);
+      const magnitude = 20 * Math.log10(Math.hypot(value.re, value.im));
+      expect(Math.abs(plotted.magnitudeDb[k] - magnitude)).toBeLessThan(1e-8 * Math.max(1, Math.abs(magnitude)));
+      const phase = (Math.atan2(value.im, value.re) * 180) / Math.PI;
+      const wrapped = ((plotted.phaseDeg[k] - phase) % 360 + 540) % 360 - 180;
+      expect(Math.abs(wrapped)).toBeLessThan(1e-6);
+      if (k > 0) expect(Math.abs(plotted.phaseDeg[k] - plotted.phaseDeg[k - 1])).toBeLessThan(180);
+    });
+  });
+});

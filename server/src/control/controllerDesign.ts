@@ -12,13 +12,13 @@ import { augmentComputationDelay } from './delayAugment';
 import { designDiagnostics as findings } from './diagnostics/designFindings';
 import { discretiseZeroOrderHold, mapPolesToContinuous, mapPolesToDiscrete, sampledCostWeights } from './discretise';
 import { float32ClosedLoopCheck } from './float32Check';
-import { bandwidth, frequencyResponse, logarithmicGrid } from './frequencyResponse';
+import { bandwidth, bodeOf, frequencyPoint, logarithmicGrid, transferEvaluator } from './frequencyResponse';
 import { analyzeFragility, fragilityParameterPoints, type FragilityInput, type FragilityResult, type PlantMatrices } from './fragility';
 import { disturbanceRejection } from './disturbanceRejection';
 import { integralActionFeasibility } from './integralAction';
 import { steadyStateKalmanGain } from './kalman';
 import { designLqr, lqrConditionEstimate, type LqrProblem } from './lqr';
-import { loopMargins, outputFeedbackLoop, stateFeedbackLoop, type LoopMarginsResult } from './margins';
+import { loopMargins, outputFeedbackLoop, stateFeedbackLoop, type LoopMarginsResult, type MarginEvaluations } from './margins';
 import { compareObserverSpeed, defaultObserverPoles, designObserverByPlacement } from './observer';
 import { placePoles } from './placement';
 import type { ControllerReport, ImplementationReport, StepResponseReport } from './reportTypes';
@@ -544,10 +544,11 @@ export function designController(
   const loop = implementedLoop(model, gains.K, augmented, observerInfo, integrated);
   // One Schur form of the loop serves the margins and the plotted response.
   const loopSchur = loop.A.length ? realSchurDense(denseFromRows(loop.A)) : undefined;
-  const margins = loopMargins(loop, model.domain, model.T ?? 1, loopSchur);
+  const marginEvaluations: MarginEvaluations = { values: new Map(), logarithmicGrid: [] };
+  const margins = loopMargins(loop, model.domain, model.T ?? 1, loopSchur, marginEvaluations);
   report.details.margins = margins;
   out.push(...findings.marginFindings(controller, plant, margins));
-  report.details.frequencyResponse = openLoopFrequencyResponse(model, loop, margins, loopSchur);
+  report.details.frequencyResponse = openLoopFrequencyResponse(model, loop, margins, loopSchur, marginEvaluations);
 
   // Sampling advice and single-precision check for sampled designs.
   if (model.domain === 'discrete') {
@@ -748,17 +749,31 @@ function implementedLoop(model: DesignModel, K: Rows, augmented: { A: Rows; B: R
 }
 
 /** Open-loop frequency response of the first input's loop (the others open), for the plots. */
-function openLoopFrequencyResponse(model: DesignModel, loop: StateSpace, margins: LoopMarginsResult, loopSchur?: RealSchurDense) {
+/** Points of the plotted open-loop response, at most. */
+const PLOTTED_RESPONSE_POINTS = 400;
+
+/**
+ * The first input's loop for a plot: the margin grid's logarithmic points (every k-th when there
+ * are more than PLOTTED_RESPONSE_POINTS, the last always kept), whose values the margins already
+ * computed; evaluated afresh only where one is missing.
+ */
+function openLoopFrequencyResponse(model: DesignModel, loop: StateSpace, margins: LoopMarginsResult, loopSchur: RealSchurDense | undefined, evaluations: MarginEvaluations) {
   const low = margins.lowestFrequency;
   const high = model.domain === 'discrete' ? Math.min(margins.highestFrequency, Math.PI / (model.T as number)) : margins.highestFrequency;
   if (!(low > 0 && high > low)) return undefined;
-  // At most about 400 points: fewer per decade on wide ranges, never a cut-off high end.
-  const perDecade = Math.max(4, Math.min(40, Math.floor(400 / Math.max(1, Math.log10(high / low)))));
-  const omega = logarithmicGrid(low, high, perDecade);
-  const response = frequencyResponse(loop.A, loop.B.map((row) => row.slice(0, 1)), loop.C.slice(0, 1), [[loop.D[0]?.[0] ?? 0]], omega, model.domain, model.T ?? undefined, loopSchur);
-  const channel = response.channels[0];
-  if (!channel) return undefined;
-  return { omega: response.omegas, magnitudeDb: channel.magnitudeDb, phaseDeg: channel.phaseDeg, brokenAt: 'first plant input, other loops open' };
+  const base = evaluations.logarithmicGrid.filter((omega) => omega >= low && omega <= high);
+  const stride = Math.max(1, Math.ceil(base.length / PLOTTED_RESPONSE_POINTS));
+  const omega = base.filter((_, k) => k % stride === 0 || k === base.length - 1);
+  if (omega.length < 2 || (loop.B[0]?.length ?? 0) === 0 || loop.C.length === 0) return undefined;
+  const known = omega.map((point) => evaluations.values.get(point));
+  const evaluate = known.every((value) => value !== undefined)
+    ? null
+    : transferEvaluator(loop.A, loop.B.map((row) => row.slice(0, 1)), loop.C.slice(0, 1), [[loop.D[0]?.[0] ?? 0]], loopSchur);
+  const values = omega.map((point, k) => {
+    const value = known[k] ?? evaluate!(frequencyPoint(point, model.domain, model.T ?? 1)).value;
+    return { re: value.re[0][0], im: value.im[0][0] };
+  });
+  return { omega, ...bodeOf(values), brokenAt: 'first plant input, other loops open' };
 }
 
 function implementationRecord(

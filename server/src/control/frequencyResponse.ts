@@ -317,27 +317,23 @@ export function frequencyResponse(
 ): FrequencyResponse {
   const p = C.length;
   const m = D[0]?.length ?? B[0]?.length ?? 0;
-  const magnitude: number[][][] = Array.from({ length: p }, () => Array.from({ length: m }, () => []));
-  const phase: number[][][] = Array.from({ length: p }, () => Array.from({ length: m }, () => []));
   const evaluate = transferEvaluator(A, B, C, D, schurOfA);
-  for (const omega of omegas) {
-    const { value } = evaluate(frequencyPoint(omega, domain, T ?? 1));
-    for (let i = 0; i < p; i++) {
-      for (let j = 0; j < m; j++) {
-        const re = value.re[i][j];
-        const im = value.im[i][j];
-        magnitude[i][j].push(20 * Math.log10(Math.hypot(re, im)));
-        phase[i][j].push((Math.atan2(im, re) * 180) / Math.PI);
-      }
-    }
-  }
+  const values = omegas.map((omega) => evaluate(frequencyPoint(omega, domain, T ?? 1)).value);
   const channels: FrequencyChannel[] = [];
   for (let i = 0; i < p; i++) {
     for (let j = 0; j < m; j++) {
-      channels.push({ output: i, input: j, magnitudeDb: magnitude[i][j], phaseDeg: unwrapDegrees(phase[i][j]) });
+      channels.push({ output: i, input: j, ...bodeOf(values.map((value) => ({ re: value.re[i][j], im: value.im[i][j] }))) });
     }
   }
   return { omegas: omegas.slice(), channels };
+}
+
+/** Magnitude (dB) and phase (degrees, unwrapped along the points) of a sampled response. */
+export function bodeOf(values: Complex[]): { magnitudeDb: number[]; phaseDeg: number[] } {
+  return {
+    magnitudeDb: values.map((value) => 20 * Math.log10(Math.hypot(value.re, value.im))),
+    phaseDeg: unwrapDegrees(values.map((value) => (Math.atan2(value.im, value.re) * 180) / Math.PI)),
+  };
 }
 
 /** Logarithmic grid from ω_low to ω_high with `perDecade` points per decade (at least 2 points). */

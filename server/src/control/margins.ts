@@ -55,6 +55,17 @@ export interface LoopMarginsResult {
 }
 
 
+/** What loopMargins evaluated, for a plot of the same loop that then needs no evaluation of its own. */
+export interface MarginEvaluations {
+  /** L at every frequency evaluated (ω in rad/s → the m × m loop). */
+  values: Map<number, ComplexRows>;
+  /** The logarithmic part of the grid (60 points per decade), every point of it evaluated. */
+  logarithmicGrid: number[];
+}
+
+/** Points per decade of the margin grid's logarithmic part. */
+const MARGIN_GRID_PER_DECADE = 60;
+
 /** L(λ) = K (λI − A)⁻¹ B as a state-space model. */
 export function stateFeedbackLoop(A: Rows, B: Rows, K: Rows): StateSpace {
   const m = K.length;
@@ -115,7 +126,7 @@ function stableIn(poles: Complex[], domain: 'continuous' | 'discrete'): boolean 
   return poles.every((pole) => (domain === 'continuous' ? pole.re < 0 : Math.hypot(pole.re, pole.im) < 1));
 }
 
-function frequencyGrid(loop: StateSpace, openPoles: Complex[], closedPoles: Complex[], domain: 'continuous' | 'discrete', T: number): number[] {
+function frequencyGrid(loop: StateSpace, openPoles: Complex[], closedPoles: Complex[], domain: 'continuous' | 'discrete', T: number): { grid: number[]; logarithmic: number[] } {
   const corners: { frequency: number; damping: number }[] = [];
   for (const pole of [...openPoles, ...closedPoles]) {
     const s = domain === 'continuous' ? pole : { re: Math.log(Math.hypot(pole.re, pole.im)) / T, im: Math.atan2(pole.im, pole.re) / T };
@@ -130,10 +141,11 @@ function frequencyGrid(loop: StateSpace, openPoles: Complex[], closedPoles: Comp
   const low = lowCorner / 100;
   const nyquist = Math.PI / T;
   const high = domain === 'continuous' ? highCorner * 100 : nyquist;
-  const grid = logarithmicGrid(Math.min(low, high / 10), high, 60);
+  const logarithmic = logarithmicGrid(Math.min(low, high / 10), high, MARGIN_GRID_PER_DECADE);
+  const grid = logarithmic.slice();
   // Relative spacing of the logarithmic grid: a resonance whose ±3ζ band spans several grid cells
   // is already resolved by it and needs no extra points.
-  const gridSpacing = Math.pow(10, 1 / 60) - 1;
+  const gridSpacing = Math.pow(10, 1 / MARGIN_GRID_PER_DECADE) - 1;
   for (const corner of corners) {
     if (corner.damping < 0.3 && 3 * corner.damping < 4 * gridSpacing) {
       // ±3ζ around a lightly damped resonance, at least ±1 % for (nearly) undamped modes.
@@ -145,7 +157,7 @@ function frequencyGrid(loop: StateSpace, openPoles: Complex[], closedPoles: Comp
     }
   }
   grid.sort((a, b) => a - b);
-  return grid.filter((omega, index) => index === 0 || omega > grid[index - 1]);
+  return { grid: grid.filter((omega, index) => index === 0 || omega > grid[index - 1]), logarithmic };
 }
 
 const REFINE_STEPS = 60;
@@ -208,19 +220,27 @@ function goldenMax(f: (omega: number) => number, low: number, high: number): { o
 /**
  * Margins of the loop L = C(λI − A)⁻¹B + D. `openLoopSchur`, a real Schur form of loop.A, may be
  * passed when the caller needs it for other responses too; its diagonal gives the open-loop poles.
+ * `evaluations`, when given, receives what was evaluated (MarginEvaluations).
  */
-export function loopMargins(loop: StateSpace, domain: 'continuous' | 'discrete', T = 1, openLoopSchur?: RealSchurDense): LoopMarginsResult {
+export function loopMargins(
+  loop: StateSpace,
+  domain: 'continuous' | 'discrete',
+  T = 1,
+  openLoopSchur?: RealSchurDense,
+  evaluations: MarginEvaluations = { values: new Map(), logarithmicGrid: [] },
+): LoopMarginsResult {
   const m = loop.D.length;
   const closedPoles = eigenvalues(closedLoopMatrix(loop));
   const closedLoopStable = stableIn(closedPoles, domain);
   const schur = openLoopSchur ?? (loop.A.length ? realSchurDense(denseFromRows(loop.A)) : undefined);
   const openPoles = schur?.converged ? schur.eigenvalues : eigenvalues(loop.A);
-  const grid = frequencyGrid(loop, openPoles, closedPoles, domain, T);
+  const { grid, logarithmic } = frequencyGrid(loop, openPoles, closedPoles, domain, T);
+  evaluations.logarithmicGrid = logarithmic;
   const rootEps = Math.sqrt(Number.EPSILON);
 
   const evaluate = transferEvaluator(loop.A, loop.B, loop.C, loop.D, schur);
   // One evaluation of the whole m × m loop per frequency, shared by the m loop-at-a-time channels.
-  const evaluated = new Map<number, ComplexRows>();
+  const evaluated = evaluations.values;
   const matrixAt = (omega: number): ComplexRows => {
     let value = evaluated.get(omega);
     if (!value) {
