@@ -11,3 +11,4 @@ export { discretiseZeroOrderHold } from '../../server/src/control/discretise';
 export { simulateStepResponses } from '../../server/src/control/stepResponse';
 export { loopMargins, stateFeedbackLoop } from '../../server/src/control/margins';
 export { invariantZeros } from '../../server/src/numeric';
+export { forgetRecentEigenvalues } from '../../server/src/numeric/eigenvectors';

@@ -36,10 +36,13 @@ function median(samples) {
 }
 // Process CPU time (user + system) per call: on a shared, loaded machine wall-clock time also
 // counts the time this process waited for a core, which says nothing about the code.
+// Every timed call computes afresh: the eigenvalue memo (numeric/eigenvectors.ts) would otherwise
+// answer the repeated calls on the same matrix.
 function medianMs(fn, repeats) {
   fn();
   const samples = [];
   for (let i = 0; i < repeats; i++) {
+    kernels.forgetRecentEigenvalues();
     const start = process.cpuUsage();
     fn();
     const used = process.cpuUsage(start);

@@ -55,6 +55,11 @@ const MEMO_SIZE = 4;
 const MEMO_FROM_ORDER = 12;
 const recentEigenvalues: { data: Float64Array; maxSweeps: number | undefined; outcome: EigenvaluesOutcome }[] = [];
 
+/** Empties the memo (benchmarks time fresh computations; nothing else needs this). */
+export function forgetRecentEigenvalues(): void {
+  recentEigenvalues.length = 0;
+}
+
 function sameEntries(a: Float64Array, b: Float64Array): boolean {
   if (a.length !== b.length) return false;
   // Bit for bit: −0 and 0 differ (1/x tells them apart), so the answer is exactly the one computed.
