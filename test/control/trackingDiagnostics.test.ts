@@ -68,3 +68,57 @@ describe('tracking, placement and structure diagnostics', () => {
     expect(integralInfeasibleDiagnostic(range, { reason: 'more-outputs-than-inputs', outputs: ['a', 'b'], inputs: ['u'] }).message).toContain('2 integrated outputs but only 1 input');
   });
 });
+
+describe('stability over the parameter box', () => {
+  // ẋ = p·q·x + u, y = x with p = q = 1 and the closed-loop pole placed at −c (K = 1 + c). Hand
+  // computation: one parameter +10 % gives 1.1 − (1 + c), both give 1.21 − (1 + c), and B −10 %
+  // gives 1 − 0.9·(1 + c). With c = 0.15 every single move stays stable and the corner
+  // p = q = 1.1 has its pole at s = +0.06; with c = 0.3 the whole box is stable; with c = 0.05 a
+  // single parameter already destabilises the loop (the fragile-prescaler warning says so).
+  const model = (c: number, integral = '') => `plant pair {
+  param p = 1
+  param q = 1
+  states x
+  inputs u
+  outputs y
+  A = [p*q]
+  B = [1]
+  C = [1]
+}
+
+controller hold for pair {
+  poles = [${-c}]
+  track y${integral}
+}
+`;
+  const findings = async (text: string) => {
+    const { analyze } = await import('../../server/src/analyze');
+    return analyze(text).diagnostics.filter((d) => d.code === 'control/unstable-under-parameter-error' || d.code === 'control/fragile-prescaler');
+  };
+
+  it('names the corner and its pole when only moving the parameters together destabilises the loop', async () => {
+    const found = await findings(model(0.15));
+    const box = found.find((d) => d.code === 'control/unstable-under-parameter-error');
+    expect(box?.severity).toBe('warning');
+    expect(box?.message).toBe('the loop loses stability within ±10 % parameter error: at `p` = 1.1, `q` = 1.1 it has a pole at s = 0.06');
+    expect(box?.related?.map((entry) => entry.message)).toContain('parameter p is declared here');
+  });
+
+  it('checks the integral loop of an integral design (no prescaler warning there)', async () => {
+    // States [x; ξ]: the characteristic polynomial is s² + (k_x − a)·s + (positive constant) with
+    // k_x − a = 0.05 + 0.1 by design (poles −0.05, −0.1). a = p·q = 1.21 at the corner leaves
+    // 0.15 − 0.21 < 0 (unstable); a single parameter leaves 0.05, B −10 % leaves 0.9·1.15 − 1 > 0.
+    const found = await findings(model(0.05, '\n  integral y pole -0.1'));
+    expect(found.map((d) => d.code)).toEqual(['control/unstable-under-parameter-error']);
+    expect(found[0].message).toBe('the loop with integral action loses stability within ±10 % parameter error');
+    const robust = await findings(model(0.5, '\n  integral y pole -1'));
+    expect(robust).toEqual([]);
+  });
+
+  it('is silent when the whole box is stable, and leaves a single destabilising parameter to the fragile-prescaler warning', async () => {
+    expect((await findings(model(0.3))).map((d) => d.code)).not.toContain('control/unstable-under-parameter-error');
+    const single = await findings(model(0.05));
+    expect(single.map((d) => d.code)).toEqual(['control/fragile-prescaler']);
+    expect(single[0].message).toContain('an unstable loop');
+  });
+});

@@ -599,6 +599,7 @@ export function designController(
         model.domain,
       );
       out.push(...verdict.diagnostics);
+      out.push(...findings.parameterBoxFindings(controller, plant, fragility, names, integrated.length > 0, model.domain));
     }
     if (plant.disturbances.length) {
       report.details.disturbanceRejection = disturbanceRejection(

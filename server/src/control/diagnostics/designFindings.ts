@@ -20,6 +20,7 @@ import { defectiveClosedLoopDiagnostic } from './defective-closed-loop';
 import { float32Rounding } from './float32-rounding';
 import { fragilePlacementDiagnostic } from './fragile-placement';
 import { fragilePrescalerDiagnostic } from './fragile-prescaler';
+import { unstableUnderParameterErrorDiagnostic } from './unstable-under-parameter-error';
 import { fullStateWithoutObserverDiagnostic } from './full-state-without-observer';
 import { illConditionedSetpointDiagnostic } from './ill-conditioned-setpoint';
 import { integralInfeasibleDiagnostic } from './integral-infeasible';
@@ -319,6 +320,37 @@ export const designDiagnostics = {
       diagnostic.data = { ...(diagnostic.data ?? {}), ...fixData };
     }
     return { diagnostics: [diagnostic], fixData };
+  },
+
+  /**
+   * The parameter box destabilises the loop that runs (the integral loop of an integral design,
+   * else the prescaler loop), where no single parameter did: a single one is already named by
+   * `control/fragile-prescaler`.
+   */
+  parameterBoxFindings(
+    controller: CheckedController,
+    plant: CheckedPlant,
+    fragility: FragilityResult,
+    parameterNames: string[],
+    integralDesign: boolean,
+    domain: Domain,
+  ): Diagnostic[] {
+    const { box } = fragility;
+    const unstable = integralDesign ? box.integralAllStable === false : !box.allStable;
+    if (!unstable) return [];
+    if (!integralDesign && !Number.isFinite(fragility.worstTrackingError)) return [];
+    const point = !integralDesign && box.worstPoint ? box.worstPoint.map((value, index) => ({ name: parameterNames[index] ?? `parameter ${index + 1}`, value })) : null;
+    const related = [
+      ...plant.parameters.slice(0, 3).map((parameter) => ({ message: `parameter ${parameter.name} is declared here`, range: parameter.range })),
+      { message: 'the plant whose parameters move', range: plant.nameRange },
+    ];
+    return [
+      unstableUnderParameterErrorDiagnostic(
+        controller.nameRange,
+        { percent: fragility.percent, loop: integralDesign ? 'integral' : 'prescaler', point, pole: integralDesign ? null : box.worstPole, domain },
+        related,
+      ),
+    ];
   },
 
   plantAnchor,

@@ -35,3 +35,4 @@ export { unobservableKind } from './unobservable';
 export { zeroDcGainKind } from './zero-dc-gain';
 export { tooManySetpointsKind } from './too-many-setpoints';
 export { gainOverflowKind } from './gain-overflow';
+export { unstableUnderParameterErrorKind } from './unstable-under-parameter-error';
