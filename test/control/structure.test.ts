@@ -89,7 +89,7 @@ describe('controllability staircase', () => {
     const reachable = 34;
     const A0 = Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => (i >= reachable && j < reachable ? 0 : random())));
     const B0 = Array.from({ length: n }, (_, i) => [0, 1].map(() => (i < reachable ? random() : 0)));
-    let Q = A0.map((_, i) => A0.map((__, j) => (i === j ? 1 : 0)));
+    let Q: number[][] = A0.map((_, i) => A0.map((__, j) => (i === j ? 1 : 0)));
     for (let r = 0; r < 3; r++) {
       const v = A0.map(() => random());
       const vv = v.reduce((sum, x) => sum + x * x, 0);
