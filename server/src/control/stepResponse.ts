@@ -407,7 +407,8 @@ export function simulateStepResponses(problem: StepResponseProblem): StepRespons
       return { z: [], u, y, divergedAt: null, time };
     }
     const states = recurseLinear(transitionFlat, forcing, size, count);
-    const z = Array.from({ length: count }, (_, k) => states.subarray(k * size, (k + 1) * size));
+    // Per-step views of the state only when the states are returned (2,000 views otherwise unused).
+    const z = problem.includeStates ? Array.from({ length: count }, (_, k) => states.subarray(k * size, (k + 1) * size)) : [];
     // u_k = Fz·z_k + Fr·r and y_k = C·x_k + D·u_k on the flat record, in the same summation order
     // as commandOf/outputOf (so the numbers are the same), without two arrays per product.
     for (let k = 0; k < count; k++) {
