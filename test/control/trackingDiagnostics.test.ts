@@ -117,6 +117,9 @@ controller hold for pair {
 
   it('is silent when the whole box is stable, and leaves a single destabilising parameter to the fragile-prescaler warning', async () => {
     expect((await findings(model(0.3))).map((d) => d.code)).not.toContain('control/unstable-under-parameter-error');
+    // A design that asks for an unstable pole is unstable already at the nominal parameters.
+    expect((await findings(model(-0.5))).map((d) => d.code)).not.toContain('control/unstable-under-parameter-error');
+    expect((await findings(model(0.5, '\n  integral y pole 0.2'))).map((d) => d.code)).not.toContain('control/unstable-under-parameter-error');
     const single = await findings(model(0.05));
     expect(single.map((d) => d.code)).toEqual(['control/fragile-prescaler']);
     expect(single[0].message).toContain('an unstable loop');

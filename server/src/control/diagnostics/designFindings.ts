@@ -335,9 +335,11 @@ export const designDiagnostics = {
     integralDesign: boolean,
     domain: Domain,
   ): Diagnostic[] {
-    const { box } = fragility;
+    const { box, nominal } = fragility;
+    // A nominal loop that is already unstable is reported by the design itself, not here.
+    const nominallyStable = integralDesign ? nominal.integralStable === true : nominal.stable;
     const unstable = integralDesign ? box.integralAllStable === false : !box.allStable;
-    if (!unstable) return [];
+    if (!unstable || !nominallyStable) return [];
     if (!integralDesign && !Number.isFinite(fragility.worstTrackingError)) return [];
     const point = !integralDesign && box.worstPoint ? box.worstPoint.map((value, index) => ({ name: parameterNames[index] ?? `parameter ${index + 1}`, value })) : null;
     const related = [
