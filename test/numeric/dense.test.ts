@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { denseFromRows, multiplyDense } from '../../server/src/numeric/dense';
+import { denseFromRows, multiplyDense, multiplyTransposeSymmetricDense, transposeDense, transposeMultiplySymmetricDense } from '../../server/src/numeric/dense';
 import { seededMatrix } from './coreTestMatrices';
 
 const EPS = Number.EPSILON;
@@ -35,3 +35,30 @@ describe('dense product', () => {
     expect(() => multiplyDense(denseFromRows([[1, 2]]), denseFromRows([[1, 2]]))).toThrow(/1×2 times 1×2/);
   });
 });
+
+describe('symmetric products (one triangle computed)', () => {
+  it.each([1, 2, 7, 30])('A·S·Aᵀ and Aᵀ·S·A of order %i equal the full products and are exactly symmetric', (n) => {
+    // Identity check against multiplyDense; S symmetric so both products are symmetric.
+    const A = denseFromRows(seededMatrix(n, n, 300 + n));
+    const raw = seededMatrix(n, n, 400 + n);
+    const S = denseFromRows(raw.map((row, i) => row.map((v, j) => (v + raw[j][i]) / 2)));
+    const AS = multiplyDense(A, S);
+    const SA = multiplyDense(S, A);
+    const cases = [
+      { fast: multiplyTransposeSymmetricDense(AS, A), full: multiplyDense(AS, transposeDense(A)) },
+      { fast: transposeMultiplySymmetricDense(A, SA), full: multiplyDense(transposeDense(A), SA) },
+    ];
+    for (const { fast, full } of cases) {
+      let scale = 0;
+      for (const v of full.data) scale = Math.max(scale, Math.abs(v));
+      for (let i = 0; i < n; i++) {
+        for (let j = 0; j < n; j++) {
+          expect(fast.data[i * n + j]).toBe(fast.data[j * n + i]);
+          expect(Math.abs(fast.data[i * n + j] - full.data[i * n + j])).toBeLessThanOrEqual(4 * n * Number.EPSILON * scale);
+        }
+      }
+    }
+    expect(() => multiplyTransposeSymmetricDense(A, denseFromRows(seededMatrix(n, n + 1, 1)))).toThrow();
+  });
+});
+

@@ -111,6 +111,80 @@ export function multiplyDense(a: Dense, b: Dense): Dense {
   return result;
 }
 
+/**
+ * M·Nᵀ for a product known to be symmetric (for instance A·S·Aᵀ with S symmetric, M = A·S): only
+ * the upper triangle is computed and then mirrored — about half the work of the full product, and
+ * exactly symmetric.
+ */
+export function multiplyTransposeSymmetricDense(M: Dense, N: Dense): Dense {
+  if (M.cols !== N.cols || M.rows !== N.rows) throw new Error(`multiplyTransposeSymmetricDense: ${M.rows}×${M.cols} times (${N.rows}×${N.cols})ᵀ`);
+  return upperTriangleProduct(M, transposeDense(N));
+}
+
+/** Nᵀ·P for a product known to be symmetric (for instance Aᵀ·S·A with S symmetric, P = S·A), as above. */
+export function transposeMultiplySymmetricDense(N: Dense, P: Dense): Dense {
+  if (N.rows !== P.rows || N.cols !== P.cols) throw new Error(`transposeMultiplySymmetricDense: (${N.rows}×${N.cols})ᵀ times ${P.rows}×${P.cols}`);
+  return upperTriangleProduct(transposeDense(N), P);
+}
+
+/**
+ * The upper triangle of the square product X·Y (mirrored below), in the row-times-row form of
+ * multiplyDense with two rows and two inner indices per pass; row i starts at column i.
+ */
+function upperTriangleProduct(X: Dense, Y: Dense): Dense {
+  const n = X.rows;
+  const inner = X.cols;
+  const result = zerosDense(n, n);
+  const x = X.data;
+  const y = Y.data;
+  const r = result.data;
+  let i = 0;
+  for (; i + 1 < n; i += 2) {
+    const r0 = i * n;
+    const r1 = r0 + n;
+    const x0 = i * inner;
+    const x1 = x0 + inner;
+    let k = 0;
+    for (; k + 1 < inner; k += 2) {
+      const a00 = x[x0 + k];
+      const a01 = x[x0 + k + 1];
+      const a10 = x[x1 + k];
+      const a11 = x[x1 + k + 1];
+      if (a00 === 0 && a01 === 0 && a10 === 0 && a11 === 0) continue;
+      const b0 = k * n;
+      const b1 = b0 + n;
+      for (let j = i; j < n; j++) {
+        const p = y[b0 + j];
+        const q = y[b1 + j];
+        r[r0 + j] += a00 * p + a01 * q;
+        r[r1 + j] += a10 * p + a11 * q;
+      }
+    }
+    if (k < inner) {
+      const a0 = x[x0 + k];
+      const a1 = x[x1 + k];
+      const b0 = k * n;
+      for (let j = i; j < n; j++) {
+        const p = y[b0 + j];
+        r[r0 + j] += a0 * p;
+        r[r1 + j] += a1 * p;
+      }
+    }
+  }
+  if (i < n) {
+    const r0 = i * n;
+    const x0 = i * inner;
+    for (let k = 0; k < inner; k++) {
+      const a0 = x[x0 + k];
+      if (a0 === 0) continue;
+      const b0 = k * n;
+      for (let j = i; j < n; j++) r[r0 + j] += a0 * y[b0 + j];
+    }
+  }
+  for (let row = 1; row < n; row++) for (let column = 0; column < row; column++) r[row * n + column] = r[column * n + row];
+  return result;
+}
+
 export function transposeDense(matrix: Dense): Dense {
   const { rows, cols, data } = matrix;
   const result = zerosDense(cols, rows);

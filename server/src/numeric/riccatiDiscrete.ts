@@ -15,8 +15,10 @@ import {
   type Dense,
   identityDense,
   multiplyDense,
+  multiplyTransposeSymmetricDense,
   normFrobeniusDense,
   transposeDense,
+  transposeMultiplySymmetricDense,
   denseToRows,
 } from './dense';
 import { luFactor, luSolveDense, reciprocalConditionEstimate } from './lu';
@@ -101,8 +103,10 @@ function structurePreservingDoubling(
     const WinvA = luSolveDense(factor, Ak);
     const WinvG = luSolveDense(factor, Gk);
     const nextA = multiplyDense(Ak, WinvA);
-    const nextG = symmetrisedDense(combine(Gk, 1, multiplyDense(multiplyDense(Ak, WinvG), transposeDense(Ak)), 1));
-    const nextH = symmetrisedDense(combine(Hk, 1, multiplyDense(transposeDense(Ak), multiplyDense(Hk, WinvA)), 1));
+    // A_k·(W⁻¹G_k)·A_kᵀ and A_kᵀ·(H_k·W⁻¹)·A_k are symmetric (W⁻¹G_k = G_k(I + H_kG_k)⁻¹ and
+    // H_kW⁻¹ are), so their last products need only one triangle.
+    const nextG = symmetrisedDense(combine(Gk, 1, multiplyTransposeSymmetricDense(multiplyDense(Ak, WinvG), Ak), 1));
+    const nextH = symmetrisedDense(combine(Hk, 1, transposeMultiplySymmetricDense(Ak, multiplyDense(Hk, WinvA)), 1));
     if (!allFinite(nextA, nextG, nextH)) return null;
     const change = normFrobeniusDense(combine(nextH, 1, Hk, -1));
     Ak = nextA;
