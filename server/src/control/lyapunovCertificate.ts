@@ -6,7 +6,7 @@
 // the products and of the Cholesky factorisation ((n + 2)²·ε relative, generous), so a
 // certificate is never an artefact of rounding. A failed test proves nothing: the caller then
 // computes eigenvalues.
-import { denseFromRows, multiplyDense, normFrobeniusDense, transposeDense, type Dense } from '../numeric/dense';
+import { denseFromRows, multiplyDense, normFrobeniusDense, transposeMultiplySymmetricDense, type Dense } from '../numeric/dense';
 import { isPositiveDefiniteShifted } from '../numeric';
 import type { Rows } from '../numeric/types';
 import type { Domain } from './structure';
@@ -99,10 +99,10 @@ export function certifiesStability(certificate: LyapunovCertificate, A: Rows, do
     roundingScale = product.roundingScale;
   } else {
     const normA = normFrobeniusDense(a);
-    const XA = multiplyDense(certificate.X, a);
-    const AtXA = multiplyDense(transposeDense(a), XA);
+    // AᵀXA is symmetric: one triangle of the last product (exactly symmetric, no averaging needed).
+    const AtXA = transposeMultiplySymmetricDense(a, multiplyDense(certificate.X, a));
     const x = certificate.X.data;
-    for (let i = 0; i < n; i++) for (let j = 0; j <= i; j++) decrease[i * n + j] = x[i * n + j] - (AtXA.data[i * n + j] + AtXA.data[j * n + i]) / 2;
+    for (let i = 0; i < n; i++) for (let j = 0; j <= i; j++) decrease[i * n + j] = x[i * n + j] - AtXA.data[i * n + j];
     roundingScale = certificate.normX * (1 + normA * normA);
   }
   let normDecrease = 0;
