@@ -749,7 +749,6 @@ function implementedLoop(model: DesignModel, K: Rows, augmented: { A: Rows; B: R
   return outputFeedbackLoop(plantModel, controller);
 }
 
-/** Open-loop frequency response of the first input's loop (the others open), for the plots. */
 /** Points of the plotted open-loop response, at most. */
 const PLOTTED_RESPONSE_POINTS = 400;
 
