@@ -59,6 +59,14 @@ export function copyDense(matrix: Dense): Dense {
  */
 export function multiplyDense(a: Dense, b: Dense): Dense {
   if (a.cols !== b.rows) throw new Error(`multiplyDense: ${a.rows}×${a.cols} times ${b.rows}×${b.cols}`);
+  return blockedProduct(a, b, false);
+}
+
+/**
+ * The kernel of multiplyDense. With `fromDiagonal`, row i is computed from column i on only (the
+ * upper triangle of a square product, and one entry below it in every second row).
+ */
+function blockedProduct(a: Dense, b: Dense, fromDiagonal: boolean): Dense {
   const m = a.rows;
   const inner = a.cols;
   const n = b.cols;
@@ -68,6 +76,7 @@ export function multiplyDense(a: Dense, b: Dense): Dense {
   const rd = result.data;
   let i = 0;
   for (; i + 1 < m; i += 2) {
+    const first = fromDiagonal ? i : 0;
     const r0 = i * n;
     const r1 = r0 + n;
     const a0 = i * inner;
@@ -81,7 +90,7 @@ export function multiplyDense(a: Dense, b: Dense): Dense {
       if (x00 === 0 && x01 === 0 && x10 === 0 && x11 === 0) continue;
       const b0 = k * n;
       const b1 = b0 + n;
-      for (let j = 0; j < n; j++) {
+      for (let j = first; j < n; j++) {
         const p = bd[b0 + j];
         const q = bd[b1 + j];
         rd[r0 + j] += x00 * p + x01 * q;
@@ -92,7 +101,7 @@ export function multiplyDense(a: Dense, b: Dense): Dense {
       const x0 = ad[a0 + k];
       const x1 = ad[a1 + k];
       const b0 = k * n;
-      for (let j = 0; j < n; j++) {
+      for (let j = first; j < n; j++) {
         const p = bd[b0 + j];
         rd[r0 + j] += x0 * p;
         rd[r1 + j] += x1 * p;
@@ -100,12 +109,13 @@ export function multiplyDense(a: Dense, b: Dense): Dense {
     }
   }
   if (i < m) {
+    const first = fromDiagonal ? i : 0;
     const r0 = i * n;
     for (let k = 0; k < inner; k++) {
       const x = ad[i * inner + k];
       if (x === 0) continue;
       const b0 = k * n;
-      for (let j = 0; j < n; j++) rd[r0 + j] += x * bd[b0 + j];
+      for (let j = first; j < n; j++) rd[r0 + j] += x * bd[b0 + j];
     }
   }
   return result;
@@ -127,60 +137,11 @@ export function transposeMultiplySymmetricDense(N: Dense, P: Dense): Dense {
   return upperTriangleProduct(transposeDense(N), P);
 }
 
-/**
- * The upper triangle of the square product X·Y (mirrored below), in the row-times-row form of
- * multiplyDense with two rows and two inner indices per pass; row i starts at column i.
- */
+/** The upper triangle of the square product X·Y (blockedProduct from the diagonal), mirrored below. */
 function upperTriangleProduct(X: Dense, Y: Dense): Dense {
-  const n = X.rows;
-  const inner = X.cols;
-  const result = zerosDense(n, n);
-  const x = X.data;
-  const y = Y.data;
+  const result = blockedProduct(X, Y, true);
+  const n = result.rows;
   const r = result.data;
-  let i = 0;
-  for (; i + 1 < n; i += 2) {
-    const r0 = i * n;
-    const r1 = r0 + n;
-    const x0 = i * inner;
-    const x1 = x0 + inner;
-    let k = 0;
-    for (; k + 1 < inner; k += 2) {
-      const a00 = x[x0 + k];
-      const a01 = x[x0 + k + 1];
-      const a10 = x[x1 + k];
-      const a11 = x[x1 + k + 1];
-      if (a00 === 0 && a01 === 0 && a10 === 0 && a11 === 0) continue;
-      const b0 = k * n;
-      const b1 = b0 + n;
-      for (let j = i; j < n; j++) {
-        const p = y[b0 + j];
-        const q = y[b1 + j];
-        r[r0 + j] += a00 * p + a01 * q;
-        r[r1 + j] += a10 * p + a11 * q;
-      }
-    }
-    if (k < inner) {
-      const a0 = x[x0 + k];
-      const a1 = x[x1 + k];
-      const b0 = k * n;
-      for (let j = i; j < n; j++) {
-        const p = y[b0 + j];
-        r[r0 + j] += a0 * p;
-        r[r1 + j] += a1 * p;
-      }
-    }
-  }
-  if (i < n) {
-    const r0 = i * n;
-    const x0 = i * inner;
-    for (let k = 0; k < inner; k++) {
-      const a0 = x[x0 + k];
-      if (a0 === 0) continue;
-      const b0 = k * n;
-      for (let j = i; j < n; j++) r[r0 + j] += a0 * y[b0 + j];
-    }
-  }
   for (let row = 1; row < n; row++) for (let column = 0; column < row; column++) r[row * n + column] = r[column * n + row];
   return result;
 }
