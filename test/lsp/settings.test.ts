@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { readServerSettings, settingsFromInitializationOptions } from '../../server/src/lsp/settings';
+import { numberFromEnvironment, readServerSettings, settingsFromInitializationOptions } from '../../server/src/lsp/settings';
 
 describe('workspace settings', () => {
   it('reads analysis fields, debounce and lenses; ignores mistyped values', () => {
@@ -21,3 +21,17 @@ describe('workspace settings', () => {
     expect(settingsFromInitializationOptions(undefined).debounceMs).toBe(150);
   });
 });
+
+describe('environment overrides', () => {
+  it('reads a finite number; unset, empty or malformed values count as unset', () => {
+    const name = 'LOOPWRIGHT_TEST_NUMBER';
+    const cases: [string | undefined, number | undefined][] = [[undefined, undefined], ['', undefined], ['  ', undefined], ['abc', undefined], ['Infinity', undefined], ['0', 0], [' 16 ', 16], ['2.5', 2.5]];
+    for (const [text, expected] of cases) {
+      if (text === undefined) delete process.env[name];
+      else process.env[name] = text;
+      expect(numberFromEnvironment(name)).toBe(expected);
+    }
+    delete process.env[name];
+  });
+});
+

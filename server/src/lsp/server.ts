@@ -52,7 +52,7 @@ import {
 } from './convert';
 import { exportController, type ExportFormat } from './exportGains';
 import { reportHtml } from './report';
-import { defaultServerSettings, readServerSettings, settingsFromInitializationOptions, type ServerSettings } from './settings';
+import { defaultServerSettings, numberFromEnvironment, readServerSettings, settingsFromInitializationOptions, type ServerSettings } from './settings';
 import { shiftRange } from './shiftRanges';
 import type { SlowResult } from './slowAnalysis';
 
@@ -70,10 +70,7 @@ const REPORT_REQUEST = 'loopwright/report';
  * A fast check at least this long (ms) is worth overlapping with the worker's start (no debounce);
  * LOOPWRIGHT_EARLY_SLOW_MS overrides it (tests use 0 to take that path on every document).
  */
-const EARLY_SLOW_AFTER_FAST_MS = (() => {
-  const fromEnvironment = Number(process.env.LOOPWRIGHT_EARLY_SLOW_MS);
-  return process.env.LOOPWRIGHT_EARLY_SLOW_MS !== undefined && Number.isFinite(fromEnvironment) ? fromEnvironment : 10;
-})();
+const EARLY_SLOW_AFTER_FAST_MS = numberFromEnvironment('LOOPWRIGHT_EARLY_SLOW_MS') ?? 10;
 
 interface DocumentState {
   /** The text as the editor has it now. */

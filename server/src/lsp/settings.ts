@@ -10,6 +10,17 @@ export interface ServerSettings {
   lenses: LensSettings;
 }
 
+/**
+ * A number from the server's environment (the LOOPWRIGHT_* overrides used by tests and benchmarks);
+ * undefined when the variable is unset, empty or not a finite number.
+ */
+export function numberFromEnvironment(name: string): number | undefined {
+  const text = process.env[name]?.trim();
+  if (!text) return undefined;
+  const value = Number(text);
+  return Number.isFinite(value) ? value : undefined;
+}
+
 export const DEFAULT_DEBOUNCE_MS = 150;
 
 export const defaultServerSettings: ServerSettings = {

@@ -5,6 +5,7 @@
 // the server links each worker to it with a fresh MessageChannel and shared cells.
 import { type MessagePort, parentPort, workerData } from 'node:worker_threads';
 import { helperForJob, serveAsHelper } from './analysisHelper';
+import { numberFromEnvironment } from './settings';
 import { traceMark } from './trace';
 import { cloneable, runSlowAnalysis, type AnalysisJob, type AnalysisReply } from './slowAnalysis';
 
@@ -27,8 +28,7 @@ if ((workerData as { role?: string } | null)?.role === 'helper') {
 } else {
   let helper: { port: MessagePort; cells: Int32Array } | null = null;
   // LOOPWRIGHT_HELPER_FROM_STATES overrides the size from which the helper is used (tests use 0).
-  const fromEnvironment = Number(process.env.LOOPWRIGHT_HELPER_FROM_STATES);
-  const helperFromStates = process.env.LOOPWRIGHT_HELPER_FROM_STATES !== undefined && Number.isFinite(fromEnvironment) ? fromEnvironment : undefined;
+  const helperFromStates = numberFromEnvironment('LOOPWRIGHT_HELPER_FROM_STATES');
   parentPort?.on('message', (message: AnalysisJob | HelperLinkMessage) => {
     if ('kind' in message && message.kind === 'link') {
       helper = { port: message.port, cells: new Int32Array(message.cells) };
