@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fixture from '../fixtures/reference/numeric_solvers.json';
 import { continuousRiccatiConditionEstimate, solveContinuousRiccati } from '../../server/src/numeric/riccatiContinuous';
-import { sortComplex } from '../../server/src/numeric/eigenvectors';
+import { eigenvaluesWithStatus, sortComplex } from '../../server/src/numeric/eigenvectors';
 import { matrixSign } from '../../server/src/numeric/matrixSign';
 import { EPS, add, eye, frob, maxAbsDiff, mul, randomMatrix, scale, seededRandom, sub, tr } from './solverTestMatrices';
 
@@ -11,6 +11,8 @@ function independentResidual(A: number[][], B: number[][], Q: number[][], r: num
   const res = add(mul(tr(A), X), mul(X, A), scale(mul(mul(X, G), X), -1), Q);
   return frob(res) / (frob(Q) + 2 * frob(A) * frob(X) + frob(X) ** 2 * frob(G));
 }
+
+const eigenvaluesOfA = (A: number[][]) => eigenvaluesWithStatus(A).values;
 
 describe('solveContinuousRiccati (Laub Schur method + Newton–Kleinman)', () => {
   it('CAREX #1: double integrator gives X = [2 1; 1 2], K = [1 2]', () => {
@@ -103,6 +105,56 @@ describe('solveContinuousRiccati (Laub Schur method + Newton–Kleinman)', () =>
       const scale = frob(c.A) + frob(mul(c.B, whole.gain));
       poles.forEach((pole, i) => expect(Math.hypot(pole.re - reference[i].re, pole.im - reference[i].im)).toBeLessThan(1e3 * c.n * EPS * scale));
     }
+  });
+
+  it('warm start: Newton from a start 10⁻⁵ away reaches SciPy\'s solution (fixture), in at most 3 steps', () => {
+    const random = seededRandom(77);
+    const distance = 1e-5;
+    let warm = 0;
+    for (const c of fixture.cases) {
+      const S = randomMatrix(c.n, c.n, random);
+      const noise = scale(add(S, tr(S)), (distance * frob(c.careX)) / frob(add(S, tr(S))));
+      const s = solveContinuousRiccati(c.A, c.B, c.Q, c.R, undefined, { start: add(c.careX, noise) });
+      const { conditionEstimate } = solveContinuousRiccati(c.A, c.B, c.Q, c.R);
+      expect(s.ok, `n=${c.n} m=${c.m}`).toBe(true);
+      // Within Newton's quadratic phase (relative distance times the condition well below 1) the
+      // start must be used; further out (κ up to 10⁸ in this fixture) the Schur route may take over.
+      if (distance * conditionEstimate < 0.1) expect(s.warmStarted, `n=${c.n} m=${c.m} κ=${conditionEstimate}`).toBe(true);
+      if (s.warmStarted) {
+        warm++;
+        expect(s.newtonSteps).toBeGreaterThanOrEqual(1);
+        expect(s.newtonSteps).toBeLessThanOrEqual(3);
+      }
+      expect(s.residual).toBeLessThan(10 * c.n * EPS);
+      // The same bound the cold route meets against SciPy (test above).
+      expect(maxAbsDiff(s.X, c.careX), `n=${c.n} m=${c.m}`).toBeLessThan(10 * c.n * EPS * conditionEstimate * frob(c.careX));
+    }
+    expect(warm).toBeGreaterThan(fixture.cases.length / 2);
+  });
+
+  it('warm start: a start that does not stabilise, is far away or has the wrong shape falls back to the Schur route (fixture)', () => {
+    let unstable = 0;
+    for (const c of fixture.cases) {
+      const cold = solveContinuousRiccati(c.A, c.B, c.Q, c.R);
+      // X₀ = 0 leaves the closed loop at A: a stabilising start only when A is stable.
+      const fromZero = solveContinuousRiccati(c.A, c.B, c.Q, c.R, undefined, { start: scale(c.careX, 0) });
+      const aStable = sortComplex(cold.closedLoopEigenvalues).length === c.n && eigenvaluesOfA(c.A).every((l) => l.re < 0);
+      if (!aStable) {
+        unstable++;
+        expect(fromZero.warmStarted, `n=${c.n} m=${c.m}`).toBe(false);
+      }
+      // 10³·X: stabilising (more feedback) but outside the quadratic phase.
+      const far = solveContinuousRiccati(c.A, c.B, c.Q, c.R, undefined, { start: scale(c.careX, 1e3) });
+      expect(far.warmStarted, `n=${c.n} m=${c.m}`).toBe(false);
+      const wrongShape = solveContinuousRiccati(c.A, c.B, c.Q, c.R, undefined, { start: eye(c.n + 1) });
+      expect(wrongShape.warmStarted).toBe(false);
+      for (const s of [fromZero, far, wrongShape]) {
+        expect(s.ok).toBe(true);
+        expect(maxAbsDiff(s.X, c.careX), `n=${c.n} m=${c.m}`).toBeLessThan(10 * c.n * EPS * cold.conditionEstimate * frob(c.careX));
+      }
+      expect(far.X).toEqual(cold.X);
+    }
+    expect(unstable).toBeGreaterThan(0);
   });
 
   it('gives the same X through the sign-function route (Roberts 1980) as through the Schur route', () => {

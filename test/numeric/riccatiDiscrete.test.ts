@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fixture from '../fixtures/reference/numeric_solvers.json';
 import { discreteRiccatiConditionEstimate, solveDiscreteRiccati } from '../../server/src/numeric/riccatiDiscrete';
+import { eigenvaluesWithStatus } from '../../server/src/numeric/eigenvectors';
 import { EPS, add, eye, frob, maxAbsDiff, mul, randomMatrix, scale, seededRandom, sub, tr } from './solverTestMatrices';
 
 /** One step of the Riccati difference equation X ↦ AᵀXA − AᵀXB(R + BᵀXB)⁻¹BᵀXA + Q (scalar R only). */
@@ -53,6 +54,51 @@ describe('solveDiscreteRiccati (structure-preserving doubling + Newton)', () => 
       expect(gainsFirst.gain).toEqual(whole.gain);
       expect(discreteRiccatiConditionEstimate(c.A, c.B, c.Q, c.R, undefined, gainsFirst.X)).toBe(whole.conditionEstimate);
     }
+  });
+
+  it('warm start: Hewer\'s Newton steps from a start 10⁻⁵ away reach SciPy\'s solution (fixture), in at most 3 steps', () => {
+    const random = seededRandom(78);
+    const distance = 1e-5;
+    let warm = 0;
+    for (const c of fixture.cases) {
+      const S = randomMatrix(c.n, c.n, random);
+      const noise = scale(add(S, tr(S)), (distance * frob(c.dareX)) / frob(add(S, tr(S))));
+      const s = solveDiscreteRiccati(c.A, c.B, c.Q, c.R, undefined, { start: add(c.dareX, noise) });
+      const { conditionEstimate } = solveDiscreteRiccati(c.A, c.B, c.Q, c.R);
+      expect(s.ok, `n=${c.n} m=${c.m}`).toBe(true);
+      // Within Newton's quadratic phase the start must be used (see the continuous test).
+      if (distance * conditionEstimate < 0.1) expect(s.warmStarted, `n=${c.n} m=${c.m} κ=${conditionEstimate}`).toBe(true);
+      if (s.warmStarted) {
+        warm++;
+        expect(s.newtonSteps).toBeLessThanOrEqual(3);
+      }
+      expect(s.residual).toBeLessThan(10 * c.n * EPS);
+      expect(maxAbsDiff(s.X, c.dareX), `n=${c.n} m=${c.m}`).toBeLessThan(10 * c.n * EPS * conditionEstimate * frob(c.dareX));
+    }
+    expect(warm).toBeGreaterThan(fixture.cases.length / 2);
+  });
+
+  it('warm start: a start that does not stabilise or has the wrong shape falls back to the doubling; a far one never misleads (fixture)', () => {
+    let unstable = 0;
+    for (const c of fixture.cases) {
+      const cold = solveDiscreteRiccati(c.A, c.B, c.Q, c.R);
+      // X₀ = 0 leaves the closed loop at A: a stabilising start only when A is Schur stable.
+      const fromZero = solveDiscreteRiccati(c.A, c.B, c.Q, c.R, undefined, { start: scale(c.dareX, 0) });
+      if (!eigenvaluesWithStatus(c.A).values.every((l) => Math.hypot(l.re, l.im) < 1)) {
+        unstable++;
+        expect(fromZero.warmStarted, `n=${c.n} m=${c.m}`).toBe(false);
+        expect(fromZero.X).toEqual(cold.X);
+      }
+      const wrongShape = solveDiscreteRiccati(c.A, c.B, c.Q, c.R, undefined, { start: eye(c.n + 1) });
+      expect(wrongShape.warmStarted).toBe(false);
+      expect(wrongShape.X).toEqual(cold.X);
+      // 10³·X: Newton may or may not converge fast from there; either way the answer is SciPy's.
+      const far = solveDiscreteRiccati(c.A, c.B, c.Q, c.R, undefined, { start: scale(c.dareX, 1e3) });
+      expect(far.ok).toBe(true);
+      expect(maxAbsDiff(far.X, c.dareX), `n=${c.n} m=${c.m}`).toBeLessThan(10 * c.n * EPS * cold.conditionEstimate * frob(c.dareX));
+      if (!far.warmStarted) expect(far.X).toEqual(cold.X);
+    }
+    expect(unstable).toBeGreaterThan(0);
   });
 
   it('converges on the raw doubling alone (no Newton steps) to a small residual', () => {

@@ -7,6 +7,10 @@
 // Newton–Kleinman steps (Kleinman, "On an iterative technique for Riccati equation computations",
 // IEEE Trans. Automat. Control 13(1), 1968) in defect-correction form, each a Lyapunov solve on the
 // closed loop, for as long as the residual keeps decreasing (at most 10 steps).
+// Warm start: given a nearby stabilising solution (the previous edit's, in the editor) the same
+// Newton steps start from it instead (numerical continuation); they must reach the cold route's
+// residual target within WARM_START_STEPS steps, each a clear quadratic-phase gain, or the cold
+// route runs as if no start had been given.
 
 import {
   type Dense,
@@ -29,6 +33,14 @@ import { countIterations } from './iterationCount';
 
 const EPS = Number.EPSILON;
 const MAX_NEWTON_STEPS = 10;
+/** Newton steps a warm start may take before the cold route takes over. */
+export const WARM_START_STEPS = 3;
+/**
+ * Each warm-start step must divide the residual by at least this much: Newton's quadratic phase
+ * (a step from residual r leaves about c·r²) does far better; a smaller gain means the start is
+ * outside that phase and the Schur route is cheaper than many linear-phase steps.
+ */
+export const WARM_START_MIN_REDUCTION = 100;
 
 export type RiccatiFailure =
   | 'not-stabilisable'
@@ -47,8 +59,10 @@ export interface RiccatiSolution {
   closedLoopEigenvalues: Complex[];
   ok: boolean;
   failure?: RiccatiFailure;
-  /** Refinement steps actually kept. */
+  /** Refinement steps actually kept (with a warm start: the steps from the start). */
   newtonSteps: number;
+  /** True when the solution was refined from the caller's start rather than solved afresh. */
+  warmStarted: boolean;
   /**
    * First-order relative condition estimate of X: ‖Ω⁻¹‖·(‖Q̄‖ + 2‖Ā‖‖X‖ + ‖G‖‖X‖²)/‖X‖ for the
    * continuous case, with Ω the closed-loop Lyapunov (resp. Stein) operator; ‖Ω⁻¹‖ = ‖Ω⁻¹(I)‖₂
@@ -140,6 +154,7 @@ export function failedSolution(n: number, m: number, failure: RiccatiFailure, cl
     ok: false,
     failure,
     newtonSteps: 0,
+    warmStarted: false,
     conditionEstimate: Infinity,
   };
 }
@@ -181,11 +196,44 @@ export function readRiccatiInputs(A: Rows, B: Rows, Q: Rows, R: Rows, N?: Rows):
 
 // ------------------------------------------------------------------ continuous-time specifics
 
-/** Āᵀ X + X Ā − X G X + Q̄ */
-function continuousResidualMatrix(Abar: Dense, G: Dense, Qbar: Dense, X: Dense): Dense {
+/**
+ * The folded equation ĀᵀX + XĀ − XGX + Q̄ = 0 with G = B·R⁻¹·Bᵀ also kept as its factors: every
+ * product with G is then formed through B (n×m), n²m work instead of n³.
+ */
+interface ContinuousEquation {
+  Abar: Dense;
+  Qbar: Dense;
+  G: Dense;
+  B: Dense;
+  Rinv: Dense;
+  normAbar: number;
+  normQbar: number;
+  normG: number;
+}
+
+function continuousEquation(Abar: Dense, Qbar: Dense, G: Dense, B: Dense, Rinv: Dense): ContinuousEquation {
+  return { Abar, Qbar, G, B, Rinv, normAbar: normFrobeniusDense(Abar), normQbar: normFrobeniusDense(Qbar), normG: normFrobeniusDense(G) };
+}
+
+interface ContinuousResidual {
+  /** ĀᵀX + XĀ − XGX + Q̄ (symmetrised). */
+  matrix: Dense;
+  /**
+   * ‖ĀᵀX + XĀ − XGX + Q̄‖_F / (‖Q̄‖_F + 2‖Ā‖_F‖X‖_F + ‖X‖_F²‖G‖_F), with G = BR⁻¹Bᵀ and the cross
+   * term folded into Ā, Q̄ (algebraically the same residual as the unfolded equation).
+   */
+  normalised: number;
+  /** G·X = B·R⁻¹·BᵀX, for the closed loop Ā − GX. */
+  GX: Dense;
+}
+
+/** The residual of a symmetric X, with XGX = (XB)·R⁻¹·(XB)ᵀ and GX = B·R⁻¹·(XB)ᵀ. */
+function continuousResidual(equation: ContinuousEquation, X: Dense): ContinuousResidual {
+  const { Abar, Qbar, B, Rinv } = equation;
   const XA = multiplyDense(X, Abar);
-  const XG = multiplyDense(X, G);
-  const XGX = multiplyDense(XG, X);
+  const XB = multiplyDense(X, B);
+  const feedback = multiplyDense(Rinv, transposeDense(XB)); // R⁻¹·BᵀX (X symmetric)
+  const XGX = multiplyDense(XB, feedback);
   const n = X.rows;
   const result = zerosDense(n, n);
   for (let i = 0; i < n; i++) {
@@ -193,18 +241,11 @@ function continuousResidualMatrix(Abar: Dense, G: Dense, Qbar: Dense, X: Dense):
       result.data[i * n + j] = XA.data[j * n + i] + XA.data[i * n + j] - XGX.data[i * n + j] + Qbar.data[i * n + j];
     }
   }
-  return symmetrisedDense(result);
-}
-
-/**
- * ‖ĀᵀX + XĀ − XGX + Q̄‖_F / (‖Q̄‖_F + 2‖Ā‖_F‖X‖_F + ‖X‖_F²‖G‖_F), with G = BR⁻¹Bᵀ and the cross
- * term folded into Ā, Q̄ (algebraically the same residual as the unfolded equation).
- */
-function continuousNormalisedResidual(Abar: Dense, G: Dense, Qbar: Dense, X: Dense): number {
-  const numerator = normFrobeniusDense(continuousResidualMatrix(Abar, G, Qbar, X));
+  const matrix = symmetrisedDense(result);
+  const numerator = normFrobeniusDense(matrix);
   const normX = normFrobeniusDense(X);
-  const denominator = normFrobeniusDense(Qbar) + 2 * normFrobeniusDense(Abar) * normX + normX * normX * normFrobeniusDense(G);
-  return denominator === 0 ? numerator : numerator / denominator;
+  const denominator = equation.normQbar + 2 * equation.normAbar * normX + normX * normX * equation.normG;
+  return { matrix, normalised: denominator === 0 ? numerator : numerator / denominator, GX: multiplyDense(B, feedback) };
 }
 
 /** X from an orthonormal basis [U11; U21] (2n×n, the first n columns of Z) of the stable subspace: X = U21·U11⁻¹. */
@@ -285,6 +326,44 @@ export interface ContinuousRiccatiOptions {
    * `continuousRiccatiConditionEstimate` (same value) while the gain is already in use.
    */
   conditionEstimate?: boolean;
+  /**
+   * A nearby stabilising solution to refine from (see the warm start above); ignored when its
+   * shape differs or Newton from it does not converge fast, so it never changes what is solved,
+   * only the route (results agree with the cold route to the residual target n·ε).
+   */
+  start?: Rows;
+}
+
+/**
+ * Newton steps from a caller's start X₀ (the warm start): each closed loop Ā − GXⱼ must be stable
+ * (read off the Schur form the Lyapunov solve uses), each step must divide the residual by
+ * WARM_START_MIN_REDUCTION, and the residual must reach n·ε within WARM_START_STEPS; else null.
+ */
+function continuousNewtonFromStart(equation: ContinuousEquation, start: Rows): { X: Dense; residual: number; steps: number } | null {
+  const { Abar } = equation;
+  const n = Abar.rows;
+  if (start.length !== n || !start.every((row) => row.length === n)) return null;
+  let X = symmetrisedDense(denseFromRows(start));
+  if (!allFinite(X)) return null;
+  let residual = continuousResidual(equation, X);
+  const target = n * EPS;
+  let steps = 0;
+  while (!(residual.normalised <= target)) {
+    if (steps === WARM_START_STEPS || !Number.isFinite(residual.normalised)) return null;
+    countIterations();
+    const closedLoopTransposed = transposeDense(combine(Abar, 1, residual.GX, -1));
+    const schur = realSchurDense(closedLoopTransposed);
+    if (!schur.converged || !schur.eigenvalues.every((lambda) => lambda.re < 0)) return null;
+    const correction = solveLyapunovContinuousDense(closedLoopTransposed, residual.matrix, schur);
+    if (!correction.ok) return null;
+    const candidate = symmetrisedDense(combine(X, 1, correction.X, 1));
+    const candidateResidual = continuousResidual(equation, candidate);
+    if (!(candidateResidual.normalised <= target || candidateResidual.normalised * WARM_START_MIN_REDUCTION <= residual.normalised)) return null;
+    X = candidate;
+    residual = candidateResidual;
+    steps++;
+  }
+  return { X, residual: residual.normalised, steps };
 }
 
 export function solveContinuousRiccati(
@@ -302,9 +381,18 @@ export function solveContinuousRiccati(
   const Rinv = inverseIfPositiveDefinite(inputs.R);
   if (Rinv === null) return failedSolution(n, m, 'r-not-positive-definite');
   if (n === 0) {
-    return { X: [], gain: Array.from({ length: m }, () => []), residual: 0, closedLoopEigenvalues: [], ok: true, newtonSteps: 0, conditionEstimate: 0 };
+    return { X: [], gain: Array.from({ length: m }, () => []), residual: 0, closedLoopEigenvalues: [], ok: true, newtonSteps: 0, warmStarted: false, conditionEstimate: 0 };
   }
   const { Abar, Qbar, G } = foldCrossTerm(inputs.A, inputs.B, inputs.Q, inputs.N, Rinv);
+
+  const equation = continuousEquation(Abar, Qbar, G, inputs.B, Rinv);
+  if (options.start) {
+    const warm = continuousNewtonFromStart(equation, options.start);
+    if (warm) {
+      const solution = finishContinuous(inputs, Rinv, Abar, G, Qbar, warm.X, warm.residual, warm.steps, options);
+      if (solution.ok) return { ...solution, warmStarted: true };
+    }
+  }
 
   // Scaling X = σ·Y balances the off-diagonal blocks: ‖σG‖ = ‖Q̄/σ‖ (common practice).
   const normG = normFrobeniusDense(G);
@@ -352,21 +440,36 @@ export function solveContinuousRiccati(
   if (!allFinite(X)) return failedSolution(n, m, 'no-convergence');
 
   // Newton–Kleinman refinement in defect-correction form: (Ā − GX)ᵀΔ + Δ(Ā − GX) = −Res(X).
-  let residual = continuousNormalisedResidual(Abar, G, Qbar, X);
+  let residual = continuousResidual(equation, X);
   let newtonSteps = 0;
-  for (let step = 0; step < MAX_NEWTON_STEPS && residual > n * EPS; step++) {
+  for (let step = 0; step < MAX_NEWTON_STEPS && residual.normalised > n * EPS; step++) {
     countIterations();
-    const closedLoop = combine(Abar, 1, multiplyDense(G, X), -1);
-    const correction = solveLyapunovContinuousDense(transposeDense(closedLoop), continuousResidualMatrix(Abar, G, Qbar, X));
+    const closedLoop = combine(Abar, 1, residual.GX, -1);
+    const correction = solveLyapunovContinuousDense(transposeDense(closedLoop), residual.matrix);
     if (!correction.ok) break;
     const candidate = symmetrisedDense(combine(X, 1, correction.X, 1));
-    const candidateResidual = continuousNormalisedResidual(Abar, G, Qbar, candidate);
-    if (!(candidateResidual < residual)) break;
+    const candidateResidual = continuousResidual(equation, candidate);
+    if (!(candidateResidual.normalised < residual.normalised)) break;
     X = candidate;
     residual = candidateResidual;
     newtonSteps++;
   }
 
+  return finishContinuous(inputs, Rinv, Abar, G, Qbar, X, residual.normalised, newtonSteps, options);
+}
+
+/** Gain, closed-loop eigenvalues, condition estimate and the final checks of a solution X. */
+function finishContinuous(
+  inputs: RiccatiInputs,
+  Rinv: Dense,
+  Abar: Dense,
+  G: Dense,
+  Qbar: Dense,
+  X: Dense,
+  residual: number,
+  newtonSteps: number,
+  options: ContinuousRiccatiOptions,
+): RiccatiSolution {
   // K = R⁻¹(BᵀX + Nᵀ); closed loop A − BK.
   const { gain, closedLoop } = gainAndClosedLoop(inputs, Rinv, X);
   let closedLoopEigenvalues: Complex[];
@@ -391,6 +494,7 @@ export function solveContinuousRiccati(
     closedLoopEigenvalues,
     ok: true,
     newtonSteps,
+    warmStarted: false,
     conditionEstimate,
   };
   if (!converged) return { ...result, ok: false, failure: 'no-convergence' };

@@ -9,10 +9,13 @@
 // converges quadratically, H_k → X. A is never inverted, so a singular state-transition matrix
 // (e.g. a computation-delay state) is fine. R itself must be positive definite here (the true
 // condition is R + BᵀXB > 0; requiring R > 0 keeps the folding and G well defined). The result is
-// refined by Newton (Hewer 1971) steps, each a Stein equation on the closed loop.
+// refined by Newton (Hewer 1971) steps, each a Stein equation on the closed loop. With a warm
+// start (a nearby stabilising solution, as riccatiContinuous.ts explains) the same Newton steps
+// start from it and the doubling is skipped when they converge fast.
 
 import {
   type Dense,
+  denseFromRows,
   identityDense,
   multiplyDense,
   multiplyTransposeSymmetricDense,
@@ -34,6 +37,8 @@ import {
   readRiccatiInputs,
   riccatiSolutionData,
   symmetrisedDense,
+  WARM_START_MIN_REDUCTION,
+  WARM_START_STEPS,
 } from './riccatiContinuous';
 import { eigenvaluesWithStatus } from './eigenvectors';
 import { realSchurDense } from './schur';
@@ -127,6 +132,50 @@ export interface DiscreteRiccatiOptions {
    * eigenvalue-only QR; `discreteRiccatiConditionEstimate` gives the same estimate apart.
    */
   conditionEstimate?: boolean;
+  /** A nearby stabilising solution to refine from (the continuous solver's `start`, same rules). */
+  start?: Rows;
+}
+
+/**
+ * Hewer's Newton steps from a caller's start X₀: each closed loop must be Schur stable (read off
+ * the Schur form its Stein solve uses), each step must divide the residual by
+ * WARM_START_MIN_REDUCTION, and the residual must reach n·ε within WARM_START_STEPS; else null.
+ */
+function discreteNewtonFromStart(
+  Abar: Dense,
+  B: Dense,
+  Rsym: Dense,
+  Qbar: Dense,
+  start: Rows,
+): { X: Dense; terms: DiscreteTerms; residual: number; steps: number } | null {
+  const n = Abar.rows;
+  if (start.length !== n || !start.every((row) => row.length === n)) return null;
+  let X = symmetrisedDense(denseFromRows(start));
+  if (!allFinite(X)) return null;
+  let terms = discreteTerms(Abar, B, Rsym, Qbar, X);
+  if (terms === null) return null;
+  let residual = normalised(terms);
+  const target = n * EPS;
+  let steps = 0;
+  while (!(residual <= target)) {
+    if (steps === WARM_START_STEPS || !Number.isFinite(residual)) return null;
+    countIterations();
+    const closedLoopTransposed = transposeDense(terms.closedLoop);
+    const schur = realSchurDense(closedLoopTransposed);
+    if (!schur.converged || !schur.eigenvalues.every((lambda) => Math.hypot(lambda.re, lambda.im) < 1)) return null;
+    const correction = solveLyapunovDiscreteDense(closedLoopTransposed, terms.residual, schur);
+    if (!correction.ok) return null;
+    const candidate = symmetrisedDense(combine(X, 1, correction.X, 1));
+    const candidateTerms = discreteTerms(Abar, B, Rsym, Qbar, candidate);
+    if (candidateTerms === null) return null;
+    const candidateResidual = normalised(candidateTerms);
+    if (!(candidateResidual <= target || candidateResidual * WARM_START_MIN_REDUCTION <= residual)) return null;
+    X = candidate;
+    terms = candidateTerms;
+    residual = candidateResidual;
+    steps++;
+  }
+  return { X, terms, residual, steps };
 }
 
 /**
@@ -148,10 +197,17 @@ export function solveDiscreteRiccati(
   const Rinv = inverseIfPositiveDefinite(inputs.R);
   if (Rinv === null) return failedSolution(n, m, 'r-not-positive-definite');
   if (n === 0) {
-    return { X: [], gain: Array.from({ length: m }, () => []), residual: 0, closedLoopEigenvalues: [], ok: true, newtonSteps: 0, conditionEstimate: 0 };
+    return { X: [], gain: Array.from({ length: m }, () => []), residual: 0, closedLoopEigenvalues: [], ok: true, newtonSteps: 0, warmStarted: false, conditionEstimate: 0 };
   }
   const Rsym = symmetrisedDense(inputs.R);
   const { Abar, Qbar, G } = foldCrossTerm(inputs.A, inputs.B, inputs.Q, inputs.N, Rinv);
+  if (options.start) {
+    const warm = discreteNewtonFromStart(Abar, inputs.B, Rsym, Qbar, options.start);
+    if (warm) {
+      const solution = finishDiscrete(inputs, Rsym, Abar, G, Qbar, warm.X, warm.terms, warm.residual, warm.steps, true, options);
+      if (solution.ok) return { ...solution, warmStarted: true };
+    }
+  }
   const doubling = structurePreservingDoubling(Abar, G, Qbar);
   if (doubling === null) return failedSolution(n, m, 'not-stabilisable');
   let X = doubling.X;
@@ -177,6 +233,23 @@ export function solveDiscreteRiccati(
     newtonSteps++;
   }
 
+  return finishDiscrete(inputs, Rsym, Abar, G, Qbar, X, terms, residual, newtonSteps, doubling.converged, options);
+}
+
+/** Gain, closed-loop eigenvalues, condition estimate and the final checks of a solution X. */
+function finishDiscrete(
+  inputs: RiccatiInputs,
+  Rsym: Dense,
+  Abar: Dense,
+  G: Dense,
+  Qbar: Dense,
+  X: Dense,
+  terms: DiscreteTerms,
+  residual: number,
+  newtonSteps: number,
+  iterationConverged: boolean,
+  options: DiscreteRiccatiOptions,
+): RiccatiSolution {
   const { gain, closedLoop } = gainAndClosedLoop(inputs, Rsym, X);
   let closedLoopEigenvalues;
   let converged: boolean;
@@ -196,6 +269,7 @@ export function solveDiscreteRiccati(
     closedLoopEigenvalues,
     ok: true,
     newtonSteps,
+    warmStarted: false,
     conditionEstimate: options.conditionEstimate === false ? NaN : discreteConditionEstimate(terms.closedLoop, Abar, G, Qbar, X),
   };
   if (!allFinite(X, gain)) return { ...result, ok: false, failure: 'no-convergence' };
@@ -205,7 +279,7 @@ export function solveDiscreteRiccati(
   const radius = Math.max(...closedLoopEigenvalues.map((lambda) => Math.hypot(lambda.re, lambda.im)));
   if (Math.abs(radius - 1) <= circleTolerance) return { ...result, ok: false, failure: 'unit-circle-eigenvalues' };
   if (!(radius < 1)) return { ...result, ok: false, failure: 'not-stabilisable' };
-  if (!converged || !doubling.converged) return { ...result, ok: false, failure: 'no-convergence' };
+  if (!converged || !iterationConverged) return { ...result, ok: false, failure: 'no-convergence' };
   return result;
 }
 
