@@ -1,7 +1,8 @@
 // The bundled server over stdio, driven by a real JSON-RPC client: sync, diagnostics,
 // hover, lenses, quick fixes, rename, formatting, completion, outline.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { analyze, checkText } from '../../server/src/analyze';
+import { analyze, checkText, WARM_START_FROM_STATES } from '../../server/src/analyze';
+import { heatedRodModel } from '../control/heatedRod';
 import { toLspDiagnostic } from '../../server/src/lsp/convert';
 import { codeLenses } from '../../server/src/ide/codeLens';
 import { formatText } from '../../server/src/ide/format';
@@ -314,6 +315,37 @@ describe('language server over stdio', () => {
     const report = await session.request<{ html: string }>('loopwright/report', { uri });
     expect(report.html).toMatch(/^<!doctype html>/i);
     expect(report.html).toContain('hoist');
+  });
+
+  it('a large LQR design starts each version from the last one\'s Riccati solution; the editor leaves the condition estimate out', async () => {
+    const text = heatedRodModel(WARM_START_FROM_STATES, '0.5');
+    const uri = await openAnalysed(text);
+    const edited = text.replace('k = 0.5', 'k = 0.5001');
+    const version = await session.change(uri, [{ range: { start: { line: 1, character: 12 }, end: { line: 1, character: 15 } }, text: '0.5001' }]);
+    await session.waitForAnalysis(uri, version);
+    const data = await session.request<{ report: { details: { lqr: { warmStarted: boolean; conditionEstimate: number | null } } } }>('loopwright/controllerData', {
+      uri,
+      controller: 'warm',
+    });
+    expect(data.report.details.lqr.warmStarted).toBe(true);
+    expect(data.report.details.lqr.conditionEstimate).toBeNull(); // NaN in the record, null on the wire
+    const published = session.lastDiagnostics(uri)!;
+    expect(published.version).toBe(version);
+    // The same verdicts as a fresh analysis: messages, ranges and codes equal; numbers carried in
+    // `data` agree to the solver's accuracy (the warm route is not bit for bit the fresh one).
+    const visible = (list: { code?: unknown; message: string; range: unknown; severity?: unknown }[]) =>
+      list.map(({ code, message, range, severity }) => ({ code, message, range, severity }));
+    const fresh = expectedDiagnostics(edited, uri) as { code?: unknown; message: string; range: unknown; severity?: unknown; data?: Record<string, unknown> }[];
+    expect(visible(published.diagnostics as typeof fresh)).toEqual(visible(fresh));
+    published.diagnostics.forEach((diagnostic, index) => {
+      const data = (diagnostic as { data?: Record<string, unknown> }).data ?? {};
+      const expected = fresh[index].data ?? {};
+      expect(Object.keys(data)).toEqual(Object.keys(expected));
+      for (const [key, value] of Object.entries(expected)) {
+        if (typeof value === 'number') expect(Math.abs((data[key] as number) - value)).toBeLessThanOrEqual(1e-9 * Math.max(1, Math.abs(value)));
+        else expect(data[key]).toEqual(value);
+      }
+    });
   });
 
   it('never answers with an error for requests on unknown documents', async () => {

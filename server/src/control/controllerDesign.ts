@@ -45,6 +45,20 @@ export interface DesignContext {
    * returned function waits for the value, null meaning "compute it here").
    */
   startRiccatiCondition?: (request: RiccatiConditionRequest) => () => number | null;
+  /**
+   * The Riccati solution of this controller's LQR design in an earlier version of the document,
+   * to start from (the solvers' warm start: same equation, cheaper route when the model moved
+   * little), and where the new one is kept. Without it every design solves afresh.
+   */
+  riccatiStart?: RiccatiStartSlot;
+  /** false: the LQR design's Riccati condition estimate is left out (NaN in `details.lqr`). */
+  riccatiConditionEstimate?: boolean;
+}
+
+/** One controller's place in a store of Riccati solutions kept between document versions. */
+export interface RiccatiStartSlot {
+  recall(): Rows | undefined;
+  keep(X: Rows): void;
 }
 
 /** An LQR design's Riccati problem and solution: plain data, cloneable. */
@@ -236,6 +250,7 @@ function computeGains(
   integratedCount: number,
   settings: AnalysisSettings,
   out: Diagnostic[],
+  riccatiStart?: Rows,
 ): Gains | null {
   const n = plant.states.length;
   const total = augmented.A.length;
@@ -259,7 +274,7 @@ function computeGains(
     }
     // The condition estimate (two more n×n Schur-form solves) is left for later: the gains are
     // needed first, and the estimate can be computed beside the rest of the design.
-    const lqr = designLqr(problem.A, problem.B, problem.Q, problem.R, problem.N, model.domain, { conditionEstimate: false });
+    const lqr = designLqr(problem.A, problem.B, problem.Q, problem.R, problem.N, model.domain, { conditionEstimate: false, start: riccatiStart });
     if (!lqr.ok || !lqr.K) {
       out.push(findings.lqrFailure(controller.lqr.range, lqr));
       return null;
@@ -273,6 +288,7 @@ function computeGains(
         lqr: {
           riccatiResidual: lqr.residual,
           conditionEstimate: lqr.conditionEstimate,
+          warmStarted: lqr.warmStarted,
           weights: weightsNote,
           classicalMarginsApply: lqr.classicalMarginsApply && !controller.observer,
         },
@@ -429,8 +445,9 @@ export function designController(
     }
   }
   const augmented = integrated.length ? integralAugmentation(model, integrated) : { A: model.A, B: model.B };
-  const gains = computeGains(controller, plant, model, augmented, integrated.length, settings, out);
+  const gains = computeGains(controller, plant, model, augmented, integrated.length, settings, out, context.riccatiStart?.recall());
   if (!gains) return report;
+  if (gains.riccatiSolution) context.riccatiStart?.keep(gains.riccatiSolution);
   if (!gains.K.every((row) => row.every(Number.isFinite))) {
     // Poles or weights beyond the double range: no gain to show, whatever the method said.
     out.push(findings.gainOverflow.create(anchor(controller), [plant.name]));
@@ -441,7 +458,8 @@ export function designController(
   report.Ki = integrated.length ? Ki : null;
   report.closedLoopPoles = gains.closedLoopPoles;
   // The LQR condition estimate needs only the problem and X: hand it over before anything else.
-  const conditionRequest: RiccatiConditionRequest | null = gains.lqrProblem && gains.riccatiSolution ? { problem: gains.lqrProblem, X: gains.riccatiSolution } : null;
+  const conditionRequest: RiccatiConditionRequest | null =
+    gains.lqrProblem && gains.riccatiSolution && context.riccatiConditionEstimate !== false ? { problem: gains.lqrProblem, X: gains.riccatiSolution } : null;
   const pendingCondition = conditionRequest && context.startRiccatiCondition ? context.startRiccatiCondition(conditionRequest) : null;
   Object.assign(report.details, gains.details, {
     designModel: model.domain === 'discrete' ? { Phi: model.A, Gamma: model.B, delayStates: model.delayStates } : undefined,

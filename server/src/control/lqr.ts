@@ -43,6 +43,8 @@ export interface LqrResult {
   /** Relative Riccati residual reported by the solver. */
   residual: number;
   conditionEstimate: number;
+  /** The Riccati solution was refined from the caller's `start` (see LqrOptions.start). */
+  warmStarted: boolean;
   failure?: LqrFailure;
   /** The offending mode for 'not-stabilisable' / 'not-detectable-on-axis'. */
   mode?: Complex;
@@ -67,6 +69,11 @@ export interface LqrOptions {
    * `lqrConditionEstimate` (same value) once the gain is in use elsewhere.
    */
   conditionEstimate?: boolean;
+  /**
+   * A stabilising Riccati solution of a nearby problem (the previous edit's) to refine from: the
+   * solvers' warm start, which changes the route and not the equation solved.
+   */
+  start?: Rows;
 }
 
 /** The LQR problem data, plain and cloneable (for computing the condition estimate apart). */
@@ -103,6 +110,7 @@ export function designLqr(
     closedLoopPoles: [],
     residual: NaN,
     conditionEstimate: NaN,
+    warmStarted: false,
     classicalMarginsApply: false,
     ...fields,
   });
@@ -149,8 +157,8 @@ export function designLqr(
 
   const solution =
     domain === 'continuous'
-      ? solveContinuousRiccati(A, B, Q, R, N, { conditionEstimate: options.conditionEstimate })
-      : solveDiscreteRiccati(A, B, Q, R, N, { conditionEstimate: options.conditionEstimate });
+      ? solveContinuousRiccati(A, B, Q, R, N, { conditionEstimate: options.conditionEstimate, start: options.start })
+      : solveDiscreteRiccati(A, B, Q, R, N, { conditionEstimate: options.conditionEstimate, start: options.start });
   const classicalMarginsApply = domain === 'continuous' && isDiagonal(R) && isZero(N);
   if (!solution.ok || !solution.X) {
     const structural = structuralFailure();
@@ -198,6 +206,7 @@ export function designLqr(
     closedLoopPoles,
     residual: solution.residual,
     conditionEstimate: solution.conditionEstimate,
+    warmStarted: solution.warmStarted,
     classicalMarginsApply,
   };
 }

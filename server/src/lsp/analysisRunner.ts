@@ -11,6 +11,7 @@ import { availableParallelism } from 'node:os';
 import { MessageChannel, Worker } from 'node:worker_threads';
 import { ANSWERS_POSTED, HELPER_BUSY, HELPER_CELLS, HELPER_GONE } from './analysisHelper';
 import type { AnalysisSettings } from '../control/settings';
+import type { Rows } from '../model/types';
 import { runSlowAnalysis, type AnalysisJob, type AnalysisReply, type SlowResult } from './slowAnalysis';
 
 // The analyses allocate many short-lived rows; a larger young generation means fewer scavenges
@@ -30,6 +31,11 @@ export class AnalysisRunner {
   private helperCells: Int32Array | null = null;
   private running: Pending | null = null;
   private readonly queue = new Map<string, Pending>();
+  /**
+   * Per document, the Riccati solutions of its last analysed version: the next job's warm starts.
+   * Kept here, not in the worker, because a newer edit terminates the worker.
+   */
+  private readonly riccatiStarts = new Map<string, Map<string, Rows>>();
   private nextJob = 1;
   private disposed = false;
 
@@ -48,7 +54,8 @@ export class AnalysisRunner {
   analyse(uri: string, version: number, text: string, settings: Partial<AnalysisSettings>): Promise<SlowOutcome> {
     return new Promise((resolve) => {
       this.cancel(uri);
-      this.queue.set(uri, { job: { job: this.nextJob++, uri, version, text, settings }, resolve });
+      const riccatiStarts = this.riccatiStarts.get(uri);
+      this.queue.set(uri, { job: { job: this.nextJob++, uri, version, text, settings, ...(riccatiStarts ? { riccatiStarts } : {}) }, resolve });
       this.pump();
     });
   }
@@ -68,6 +75,11 @@ export class AnalysisRunner {
       this.warm(); // a fresh worker loads while the next edit settles
       this.pump();
     }
+  }
+
+  /** Forgets a closed document's warm starts (after `cancel`). */
+  forget(uri: string): void {
+    this.riccatiStarts.delete(uri);
   }
 
   /** Starts the worker ahead of the first job, so the first analysis does not wait for it to load. */
@@ -96,6 +108,10 @@ export class AnalysisRunner {
   private finish(pending: Pending, outcome: SlowOutcome): void {
     if (this.running !== pending) return; // cancelled meanwhile; already resolved
     this.running = null;
+    if ('result' in outcome) {
+      if (outcome.result.riccatiStarts.size) this.riccatiStarts.set(pending.job.uri, outcome.result.riccatiStarts);
+      else this.riccatiStarts.delete(pending.job.uri);
+    }
     pending.resolve(outcome);
     this.pump();
   }
@@ -104,7 +120,10 @@ export class AnalysisRunner {
     setImmediate(() => {
       if (this.running !== pending) return;
       try {
-        const result = runSlowAnalysis(pending.job.text, pending.job.settings, () => this.running !== pending);
+        const result = runSlowAnalysis(pending.job.text, pending.job.settings, {
+          isCancelled: () => this.running !== pending,
+          riccatiStarts: pending.job.riccatiStarts,
+        });
         this.finish(pending, { result });
       } catch (error) {
         this.finish(pending, { error: error instanceof Error ? error.stack ?? error.message : String(error) });

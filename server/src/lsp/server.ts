@@ -365,6 +365,7 @@ export function startServer(connection: Connection, options: ServerOptions = {})
     const state = documents.get(uri);
     if (state) stopTimers(state);
     runner.cancel(uri);
+    runner.forget(uri);
     documents.delete(uri);
     void connection.sendDiagnostics({ uri, diagnostics: [] });
   });

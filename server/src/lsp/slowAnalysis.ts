@@ -1,10 +1,10 @@
 // The slow part of one document version, as a structured-clone-safe record: what the worker
 // thread posts back (the main thread already holds the syntax tree and checked model of that
 // version, so only diagnostics and reports travel).
-import { analyzeFastCheck, checkText, type AnalysisHelper } from '../analyze';
+import { analyzeFastCheck, checkText, type SlowOptions } from '../analyze';
 import type { AnalysisSettings } from '../control/settings';
 import type { ControllerReport, PlantReport } from '../control/design';
-import type { Diagnostic } from '../model/types';
+import type { Diagnostic, Rows } from '../model/types';
 
 export interface SlowResult {
   /** All diagnostics of the version, in the order `analyze` gives them. */
@@ -15,6 +15,8 @@ export interface SlowResult {
   controllers: ControllerReport[];
   settings: AnalysisSettings;
   skipped?: { reason: 'too-large' | 'cancelled'; detail: string };
+  /** The LQR designs' Riccati solutions by controller name: the next version's warm starts. */
+  riccatiStarts: Map<string, Rows>;
 }
 
 export interface AnalysisJob {
@@ -23,6 +25,8 @@ export interface AnalysisJob {
   version: number;
   text: string;
   settings: Partial<AnalysisSettings>;
+  /** Riccati solutions of an earlier version of the document (SlowResult.riccatiStarts). */
+  riccatiStarts?: Map<string, Rows>;
 }
 
 export type AnalysisReply =
@@ -32,12 +36,15 @@ export type AnalysisReply =
 export function runSlowAnalysis(
   text: string,
   settings: Partial<AnalysisSettings>,
-  isCancelled?: () => boolean,
-  helper?: AnalysisHelper,
-  helperFromStates?: number,
+  options: Omit<SlowOptions, 'riccatiStarts' | 'riccatiConditionEstimate'> & { riccatiStarts?: ReadonlyMap<string, Rows> } = {},
 ): SlowResult {
   const fast = checkText(text);
-  const analysis = analyzeFastCheck(fast, settings, { isCancelled, helper, helperFromStates });
+  const riccatiStarts = new Map(options.riccatiStarts ?? []);
+  // No editor view shows the Riccati condition estimate (only the CLI's JSON does): left out.
+  const analysis = analyzeFastCheck(fast, settings, { ...options, riccatiStarts, riccatiConditionEstimate: false });
+  // Starts of controllers no longer in the document are dropped.
+  const names = new Set(fast.model.controllers.map((controller) => controller.name));
+  for (const name of [...riccatiStarts.keys()]) if (!names.has(name)) riccatiStarts.delete(name);
   const fastSet = new Set(fast.diagnostics);
   const result: SlowResult = {
     diagnostics: analysis.diagnostics,
@@ -45,6 +52,7 @@ export function runSlowAnalysis(
     plants: analysis.plants,
     controllers: analysis.controllers,
     settings: analysis.settings,
+    riccatiStarts,
   };
   if (analysis.skipped) result.skipped = analysis.skipped;
   return result;

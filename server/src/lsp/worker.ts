@@ -39,7 +39,7 @@ if ((workerData as { role?: string } | null)?.role === 'helper') {
     let reply: AnalysisReply;
     try {
       const link = helper ? helperForJob(helper.port, helper.cells, job.job, job.text, job.settings) : undefined;
-      reply = { job: job.job, uri: job.uri, version: job.version, result: runSlowAnalysis(job.text, job.settings, undefined, link, helperFromStates) };
+      reply = { job: job.job, uri: job.uri, version: job.version, result: runSlowAnalysis(job.text, job.settings, { helper: link, helperFromStates, riccatiStarts: job.riccatiStarts }) };
     } catch (error) {
       reply = { job: job.job, uri: job.uri, version: job.version, error: error instanceof Error ? error.stack ?? error.message : String(error) };
     }
