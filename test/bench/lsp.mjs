@@ -2,7 +2,9 @@
 //   - didChange → publishDiagnostics of the fast checks, and → the full analysis
 //     (loopwright/analysisUpdated), median and 95th percentile over 200 edits, debounce 0,
 //     for generated 10- and 100-state models;
-//   - the largest model again in alternating blocks with and without the analysis helper thread;
+//   - the largest model again in alternating blocks with and without the analysis helper thread,
+//     and with and without the Riccati warm start (LOOPWRIGHT_WARM_START=0: every version solved
+//     afresh, as a first analysis or a large edit is);
 //   - hover latency while a 200-state model analyses (median).
 // `--timeline [--states N]` instead prints where the time of one N-state analysis (default 100) goes, per thread: median
 // milliseconds from the coordinator's job start to each mark of server/src/lsp/trace.ts.
@@ -138,7 +140,8 @@ async function measureEdits(n, edits, env = {}, firstEdit = 0, bundle = serverBu
   const full = [];
   for (let i = 0; i < edits; i++) {
     const version = i + 2;
-    // 0.5001, 0.5002, …: every edit is a text the server has not seen (nothing can be reused).
+    // 0.5001, 0.5002, …: every edit is a text the server has not seen; only the LQR design's
+    // Riccati solve starts from the previous version's solution (the warm start, ≥ 40 states).
     const value = (0.5 + (firstEdit + i + 1) / 10000).toFixed(4);
     const fastEvent = session.waitFor((e) => e.kind === 'diagnostics' && e.uri === uri && e.version === version);
     const fullEvent = session.waitFor((e) => e.kind === 'analysed' && e.uri === uri && e.version === version);
@@ -328,6 +331,12 @@ if (args.includes('--compare')) {
     withHelper.push(...(await measureEdits(largest, 50, {}, 1000 + block * 50)).full);
     withoutHelper.push(...(await measureEdits(largest, 50, { LOOPWRIGHT_ANALYSIS_THREADS: '1' }, 1000 + block * 50)).full);
   }
+  const warm = [];
+  const cold = [];
+  for (let block = 0; block < Math.ceil(edits / 100); block++) {
+    warm.push(...(await measureEdits(largest, 50, {}, 3000 + block * 50)).full);
+    cold.push(...(await measureEdits(largest, 50, { LOOPWRIGHT_WARM_START: '0' }, 3000 + block * 50)).full);
+  }
   const hover = await measureHoverDuringAnalysis(200, option('--hovers', 50));
   console.log(`didChange → diagnostics, debounce 0, ${edits} edits (milliseconds)`);
   console.log('model       fast p50  fast p95  full p50  full p95');
@@ -337,6 +346,10 @@ if (args.includes('--compare')) {
   console.log(
     `${largest} states, alternating blocks: full p50 ${ms(helperMedian)} ms with the helper thread, ${ms(singleMedian)} ms with one analysis thread` +
       ` (ratio ${(helperMedian / singleMedian).toFixed(2)}; ${withHelper.length} edits each)`,
+  );
+  console.log(
+    `${largest} states, alternating blocks: full p50 ${ms(percentile(warm, 50))} ms with the Riccati warm start, ${ms(percentile(cold, 50))} ms solving afresh` +
+      ` (ratio ${(percentile(warm, 50) / percentile(cold, 50)).toFixed(2)}; ${warm.length} edits each)`,
   );
   console.log(
     `hover while a 200-state model analyses: median ${ms(percentile(hover.latencies, 50))} ms, p95 ${ms(percentile(hover.latencies, 95))} ms over ${hover.during} hovers` +

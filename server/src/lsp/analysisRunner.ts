@@ -54,7 +54,8 @@ export class AnalysisRunner {
   analyse(uri: string, version: number, text: string, settings: Partial<AnalysisSettings>): Promise<SlowOutcome> {
     return new Promise((resolve) => {
       this.cancel(uri);
-      const riccatiStarts = this.riccatiStarts.get(uri);
+      // LOOPWRIGHT_WARM_START=0 solves every version afresh (for side-by-side measurement).
+      const riccatiStarts = process.env.LOOPWRIGHT_WARM_START === '0' ? undefined : this.riccatiStarts.get(uri);
       this.queue.set(uri, { job: { job: this.nextJob++, uri, version, text, settings, ...(riccatiStarts ? { riccatiStarts } : {}) }, resolve });
       this.pump();
     });
