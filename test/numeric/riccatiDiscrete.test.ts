@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import fixture from '../fixtures/reference/numeric_solvers.json';
 import { discreteRiccatiConditionEstimate, solveDiscreteRiccati } from '../../server/src/numeric/riccatiDiscrete';
 import { eigenvaluesWithStatus } from '../../server/src/numeric/eigenvectors';
-import { EPS, add, eye, frob, maxAbsDiff, mul, randomMatrix, scale, seededRandom, sub, tr } from './solverTestMatrices';
+import { EPS, checkWarmStartsNearReference, add, eye, frob, maxAbsDiff, mul, randomMatrix, scale, seededRandom, sub, tr } from './solverTestMatrices';
 
 /** One step of the Riccati difference equation X ↦ AᵀXA − AᵀXB(R + BᵀXB)⁻¹BᵀXA + Q (scalar R only). */
 function riccatiMap(A: number[][], B: number[][], Q: number[][], r: number, X: number[][]): number[][] {
@@ -57,24 +57,13 @@ describe('solveDiscreteRiccati (structure-preserving doubling + Newton)', () => 
   });
 
   it('warm start: Hewer\'s Newton steps from a start 10⁻⁵ away reach SciPy\'s solution (fixture), in at most 3 steps', () => {
-    const random = seededRandom(78);
-    const distance = 1e-5;
-    let warm = 0;
-    for (const c of fixture.cases) {
-      const S = randomMatrix(c.n, c.n, random);
-      const noise = scale(add(S, tr(S)), (distance * frob(c.dareX)) / frob(add(S, tr(S))));
-      const s = solveDiscreteRiccati(c.A, c.B, c.Q, c.R, undefined, { start: add(c.dareX, noise) });
-      const { conditionEstimate } = solveDiscreteRiccati(c.A, c.B, c.Q, c.R);
-      expect(s.ok, `n=${c.n} m=${c.m}`).toBe(true);
-      // Within Newton's quadratic phase the start must be used (see the continuous test).
-      if (distance * conditionEstimate < 0.1) expect(s.warmStarted, `n=${c.n} m=${c.m} κ=${conditionEstimate}`).toBe(true);
-      if (s.warmStarted) {
-        warm++;
-        expect(s.newtonSteps).toBeLessThanOrEqual(3);
-      }
-      expect(s.residual).toBeLessThan(10 * c.n * EPS);
-      expect(maxAbsDiff(s.X, c.dareX), `n=${c.n} m=${c.m}`).toBeLessThan(10 * c.n * EPS * conditionEstimate * frob(c.dareX));
-    }
+    const warm = checkWarmStartsNearReference(
+      fixture.cases,
+      (c) => c.dareX,
+      (c, start) => solveDiscreteRiccati(c.A, c.B, c.Q, c.R, undefined, { start }),
+      78,
+      (actual, label) => expect(actual, label),
+    );
     expect(warm).toBeGreaterThan(fixture.cases.length / 2);
   });
 

@@ -37,3 +37,49 @@ export function seededRandom(seed: number): () => number {
 export function randomMatrix(rows: number, cols: number, random: () => number): M {
   return Array.from({ length: rows }, () => Array.from({ length: cols }, random));
 }
+
+/** What both Riccati solvers return, as far as the warm-start checks read it. */
+interface WarmStartOutcome {
+  ok: boolean;
+  X: M;
+  residual: number;
+  warmStarted: boolean;
+  newtonSteps: number;
+}
+
+/**
+ * The warm-start check shared by both Riccati solvers: from the reference solution moved by
+ * `distance` in a random symmetric direction, the solver must use the start wherever
+ * distance·κ < 0.1 (κ its condition estimate of the fresh solve: Newton's quadratic phase), take at
+ * most 3 steps, and land within the bound the fresh route meets against the reference,
+ * 10·n·ε·κ·‖X‖. Returns how many cases were warm-started.
+ */
+export function checkWarmStartsNearReference<C extends { n: number; m: number }>(
+  cases: C[],
+  reference: (c: C) => M,
+  solve: (c: C, start?: M) => WarmStartOutcome & { conditionEstimate: number },
+  seed: number,
+  expectValue: (actual: unknown, label: string) => { toBe(value: unknown): void; toBeLessThan(value: number): void; toBeLessThanOrEqual(value: number): void },
+): number {
+  const random = seededRandom(seed);
+  const distance = 1e-5;
+  let warm = 0;
+  for (const c of cases) {
+    const X = reference(c);
+    const S = randomMatrix(c.n, c.n, random);
+    const direction = add(S, tr(S));
+    const s = solve(c, add(X, scale(direction, (distance * frob(X)) / frob(direction))));
+    const { conditionEstimate } = solve(c);
+    const label = `n=${c.n} m=${c.m} κ=${conditionEstimate}`;
+    expectValue(s.ok, label).toBe(true);
+    if (distance * conditionEstimate < 0.1) expectValue(s.warmStarted, label).toBe(true);
+    if (s.warmStarted) {
+      warm++;
+      expectValue(s.newtonSteps, label).toBeLessThanOrEqual(3);
+    }
+    expectValue(s.residual, label).toBeLessThan(10 * c.n * EPS);
+    expectValue(maxAbsDiff(s.X, X), label).toBeLessThan(10 * c.n * EPS * conditionEstimate * frob(X));
+  }
+  return warm;
+}
+
