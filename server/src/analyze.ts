@@ -16,6 +16,7 @@ import {
   type FragilityRequest,
   type RebuiltPlants,
   type RiccatiConditionRequest,
+  type RiccatiRole,
   type RiccatiStartSlot,
 } from './control/controllerDesign';
 import type { FragilityResult } from './control/fragility';
@@ -75,8 +76,8 @@ export interface SlowOptions {
    */
   helperFromStates?: number;
   /**
-   * Riccati solutions kept from earlier versions of the same document, by controller name: LQR
-   * designs of plants with at least WARM_START_FROM_STATES states start from them (the solvers'
+   * Riccati solutions kept from earlier versions of the same document (keys: `riccatiStartKey`): LQR
+   * and Kalman designs of plants with at least WARM_START_FROM_STATES states start from them (the solvers'
    * warm start) and keep their new ones there. The route changes, not the equation: results agree
    * with a fresh analysis to the solver's residual target (n·ε), not bit for bit, so only the
    * editor's worker passes a store; the CLI and the report never do.
@@ -126,12 +127,18 @@ function plantRebuilder(fast: FastCheck, controller: CheckedController): DesignC
   };
 }
 
+/** The key of one of a controller's Riccati solutions in a store (`SlowOptions.riccatiStarts`). */
+export function riccatiStartKey(controllerName: string, role: RiccatiRole): string {
+  // A space cannot occur in a name, so the two roles never collide with another controller's key.
+  return role === 'regulator' ? controllerName : `${controllerName} estimator`;
+}
+
 function riccatiStartSlot(store: Map<string, Rows> | undefined, controller: CheckedController, plant: CheckedPlant | undefined): RiccatiStartSlot | undefined {
   if (!store || !plant || plant.states.length < WARM_START_FROM_STATES) return undefined;
   return {
-    recall: () => store.get(controller.name),
-    keep: (X) => {
-      store.set(controller.name, X);
+    recall: (role) => store.get(riccatiStartKey(controller.name, role)),
+    keep: (role, X) => {
+      store.set(riccatiStartKey(controller.name, role), X);
     },
   };
 }

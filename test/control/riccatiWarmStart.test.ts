@@ -41,6 +41,23 @@ describe('warm-started LQR designs between document versions', () => {
     expect(warm.controllers[0].K).toEqual(analyzeFastCheck(checkText(changed)).controllers[0].K);
   });
 
+  it('a Kalman estimator starts from its previous solution too; its gain matches SciPy', () => {
+    const n = WARM_START_FROM_STATES;
+    const starts = new Map<string, Rows>();
+    analyzeFastCheck(checkText(rodModel(n, '0.5', true)), {}, { riccatiStarts: starts });
+    expect([...starts.keys()].sort()).toEqual(['warm', 'warm estimator']);
+    const nudged = rodModel(n, '0.5001', true);
+    const warm = analyzeFastCheck(checkText(nudged), {}, { riccatiStarts: starts });
+    const fresh = analyzeFastCheck(checkText(nudged));
+    const observer = (analysis: typeof warm) => analysis.controllers[0].details.observer as { warmStarted: boolean; L: Rows };
+    expect(observer(warm).warmStarted).toBe(true);
+    expect(observer(fresh).warmStarted).toBe(false);
+    expect(warm.diagnostics.map((d) => `${d.code} ${d.message}`)).toEqual(fresh.diagnostics.map((d) => `${d.code} ${d.message}`));
+    const column = (L: Rows) => [L.map((row) => row[0])];
+    expect(relativeGap(column(observer(warm).L), column(observer(fresh).L))).toBeLessThan(1e5 * n * Number.EPSILON);
+    for (const [index, value] of SCIPY_ROD40_KALMAN_GAIN) expect(Math.abs(observer(warm).L[index][0] - value)).toBeLessThan(1e-9 * Math.max(1, Math.abs(value)));
+  });
+
   it('plants below WARM_START_FROM_STATES states neither use nor fill the store', () => {
     const starts = new Map<string, Rows>();
     analyzeFastCheck(checkText(rodModel(WARM_START_FROM_STATES - 1, '0.5')), {}, { riccatiStarts: starts });
@@ -64,4 +81,12 @@ const SCIPY_ROD40_GAIN: [number, number][] = [
   [0, 0.776912706835745],
   [19, 0.09046974676650446],
   [39, 0.027255179776031806],
+];
+
+// P = scipy.linalg.solve_continuous_are(A.T, C.T, np.eye(40), 0.01*np.eye(1)), L = P·Cᵀ/0.01 for the
+// same rod (k = 0.5001, h = 0.05; SciPy 1.17.1): first, middle and last entries, as [index, value].
+const SCIPY_ROD40_KALMAN_GAIN: [number, number][] = [
+  [0, 0.27245138900507204],
+  [19, 0.863888659662939],
+  [39, 9.656687493442613],
 ];

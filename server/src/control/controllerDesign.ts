@@ -46,19 +46,22 @@ export interface DesignContext {
    */
   startRiccatiCondition?: (request: RiccatiConditionRequest) => () => number | null;
   /**
-   * The Riccati solution of this controller's LQR design in an earlier version of the document,
-   * to start from (the solvers' warm start: same equation, cheaper route when the model moved
-   * little), and where the new one is kept. Without it every design solves afresh.
+   * The Riccati solutions of this controller's LQR and Kalman designs in an earlier version of the
+   * document, to start from (the solvers' warm start: same equations, cheaper route when the model
+   * moved little), and where the new ones are kept. Without it every design solves afresh.
    */
   riccatiStart?: RiccatiStartSlot;
   /** false: the LQR design's Riccati condition estimate is left out (NaN in `details.lqr`). */
   riccatiConditionEstimate?: boolean;
 }
 
+/** Which of a controller's Riccati equations: the regulator's (LQR) or the estimator's (Kalman). */
+export type RiccatiRole = 'regulator' | 'estimator';
+
 /** One controller's place in a store of Riccati solutions kept between document versions. */
 export interface RiccatiStartSlot {
-  recall(): Rows | undefined;
-  keep(X: Rows): void;
+  recall(role: RiccatiRole): Rows | undefined;
+  keep(role: RiccatiRole, X: Rows): void;
 }
 
 /** An LQR design's Riccati problem and solution: plain data, cloneable. */
@@ -445,9 +448,9 @@ export function designController(
     }
   }
   const augmented = integrated.length ? integralAugmentation(model, integrated) : { A: model.A, B: model.B };
-  const gains = computeGains(controller, plant, model, augmented, integrated.length, settings, out, context.riccatiStart?.recall());
+  const gains = computeGains(controller, plant, model, augmented, integrated.length, settings, out, context.riccatiStart?.recall('regulator'));
   if (!gains) return report;
-  if (gains.riccatiSolution) context.riccatiStart?.keep(gains.riccatiSolution);
+  if (gains.riccatiSolution) context.riccatiStart?.keep('regulator', gains.riccatiSolution);
   if (!gains.K.every((row) => row.every(Number.isFinite))) {
     // Poles or weights beyond the double range: no gain to show, whatever the method said.
     out.push(findings.gainOverflow.create(anchor(controller), [plant.name]));
@@ -500,7 +503,7 @@ export function designController(
   const pendingFragility = fragilityRequest && context.startFragility ? context.startFragility(fragilityRequest) : null;
 
   // Observer (estimator) and the full-state warning.
-  const observerInfo = designEstimator(controller, plant, model, gains.closedLoopPoles, settings, out);
+  const observerInfo = designEstimator(controller, plant, model, gains.closedLoopPoles, settings, out, context.riccatiStart);
   if (observerInfo) report.details.observer = observerInfo.details;
   else if (!measuresAllStates(plant.C, n)) {
     out.push(findings.fullStateWithoutObserver(controller, plant, measuredRank(plant.C), suggestedObserverPoles(gains.closedLoopPoles, model, settings)));
@@ -669,6 +672,7 @@ function designEstimator(
   controllerPoles: Complex[],
   settings: AnalysisSettings,
   out: Diagnostic[],
+  riccatiStart?: RiccatiStartSlot,
 ): EstimatorInfo | null {
   const spec = controller.observer;
   if (!spec) return null;
@@ -724,14 +728,18 @@ function designEstimator(
       G: onDisturbances ? model.E : undefined,
       domain: model.domain,
       form,
+      start: riccatiStart?.recall('estimator'),
+      // Not reported (the regulator's estimate is): two n × n Schur-form solves saved.
+      conditionEstimate: false,
     });
     if (!kalman.ok || !kalman.gain) {
       out.push(findings.kalmanFailure(spec.range, kalman));
       return null;
     }
+    if (kalman.P) riccatiStart?.keep('estimator', kalman.P);
     L = kalman.gain;
     poles = kalman.observerPoles;
-    details = { method: 'kalman', L, poles, form, riccatiResidual: kalman.residual, noiseMeaning: model.domain === 'discrete' ? 'covariances per sample' : 'spectral densities' };
+    details = { method: 'kalman', L, poles, form, riccatiResidual: kalman.residual, warmStarted: kalman.warmStarted, noiseMeaning: model.domain === 'discrete' ? 'covariances per sample' : 'spectral densities' };
   }
   const speed = compareObserverSpeed(controllerPoles, poles, model.domain, model.T ?? 1);
   if (speed.observerSlower) out.push(findings.observerSlower.create(spec.range, [speed.slowestObserverRate, speed.slowestControllerRate]));

@@ -38,6 +38,8 @@ export interface KalmanResult {
   observerPoles: Complex[];
   residual: number;
   conditionEstimate: number;
+  /** The dual Riccati solve started from `start` (see KalmanProblem.start). */
+  warmStarted: boolean;
   failure?: KalmanFailure;
   mode?: Complex;
 }
@@ -54,6 +56,10 @@ export interface KalmanProblem {
   domain: 'continuous' | 'discrete';
   /** Discrete only (default 'predictor'). */
   form?: 'predictor' | 'current';
+  /** A nearby problem's P to start the dual Riccati solve from (the solvers' warm start). */
+  start?: Rows;
+  /** false: the dual Riccati's condition estimate is left out (NaN in the result). */
+  conditionEstimate?: boolean;
 }
 
 export function steadyStateKalmanGain(problem: KalmanProblem): KalmanResult {
@@ -71,6 +77,7 @@ export function steadyStateKalmanGain(problem: KalmanProblem): KalmanResult {
     observerPoles: [],
     residual: NaN,
     conditionEstimate: NaN,
+    warmStarted: false,
     failure,
     ...extra,
   });
@@ -82,7 +89,7 @@ export function steadyStateKalmanGain(problem: KalmanProblem): KalmanResult {
   if (!wCheck.ok) return fail('w-not-positive-semidefinite');
   const processOnStates = G ? multiply(multiply(G, W), transpose(G)) : W;
 
-  const dual = designLqr(transpose(A), transpose(C), processOnStates, V, undefined, domain);
+  const dual = designLqr(transpose(A), transpose(C), processOnStates, V, undefined, domain, { start: problem.start, conditionEstimate: problem.conditionEstimate });
   if (!dual.ok || !dual.X || !dual.K) {
     const map: Record<string, KalmanFailure> = {
       'dimension-mismatch': 'dimension-mismatch',
@@ -124,5 +131,6 @@ export function steadyStateKalmanGain(problem: KalmanProblem): KalmanResult {
     observerPoles,
     residual: dual.residual,
     conditionEstimate: dual.conditionEstimate,
+    warmStarted: dual.warmStarted,
   };
 }

@@ -1,7 +1,7 @@
 // The slow part of one document version, as a structured-clone-safe record: what the worker
 // thread posts back (the main thread already holds the syntax tree and checked model of that
 // version, so only diagnostics and reports travel).
-import { analyzeFastCheck, checkText, type SlowOptions } from '../analyze';
+import { analyzeFastCheck, checkText, riccatiStartKey, type SlowOptions } from '../analyze';
 import type { AnalysisSettings } from '../control/settings';
 import type { ControllerReport, PlantReport } from '../control/design';
 import type { Diagnostic, Rows } from '../model/types';
@@ -15,7 +15,7 @@ export interface SlowResult {
   controllers: ControllerReport[];
   settings: AnalysisSettings;
   skipped?: { reason: 'too-large' | 'cancelled'; detail: string };
-  /** The LQR designs' Riccati solutions by controller name: the next version's warm starts. */
+  /** The LQR and Kalman designs' Riccati solutions (keys: `riccatiStartKey`): the next version's warm starts. */
   riccatiStarts: Map<string, Rows>;
 }
 
@@ -43,8 +43,8 @@ export function runSlowAnalysis(
   // No editor view shows the Riccati condition estimate (only the CLI's JSON does): left out.
   const analysis = analyzeFastCheck(fast, settings, { ...options, riccatiStarts, riccatiConditionEstimate: false });
   // Starts of controllers no longer in the document are dropped.
-  const names = new Set(fast.model.controllers.map((controller) => controller.name));
-  for (const name of [...riccatiStarts.keys()]) if (!names.has(name)) riccatiStarts.delete(name);
+  const keys = new Set(fast.model.controllers.flatMap((controller) => [riccatiStartKey(controller.name, 'regulator'), riccatiStartKey(controller.name, 'estimator')]));
+  for (const key of [...riccatiStarts.keys()]) if (!keys.has(key)) riccatiStarts.delete(key);
   const fastSet = new Set(fast.diagnostics);
   const result: SlowResult = {
     diagnostics: analysis.diagnostics,
