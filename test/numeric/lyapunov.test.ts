@@ -50,6 +50,26 @@ describe('solveLyapunovContinuous', () => {
     }
   });
 
+  it('solves with the symmetric part of a non-symmetric Q on the upper triangle only (residual identity)', () => {
+    const random = seededRandom(11);
+    for (const n of [1, 2, 5, 17, 40]) {
+      // Random A has complex pairs (2×2 Schur blocks); the shift keeps λᵢ + λⱼ away from 0.
+      const A = sub(randomMatrix(n, n, random), scale(eye(n), 3));
+      const Q = randomMatrix(n, n, random);
+      const symmetricQ = scale(add(Q, tr(Q)), 0.5);
+      const { X, ok } = solveLyapunovContinuous(A, Q);
+      expect(ok).toBe(true);
+      for (let i = 0; i < n; i++) for (let j = 0; j < i; j++) expect(X[i][j]).toBe(X[j][i]);
+      const residual = frob(add(mul(A, X), mul(X, tr(A)), symmetricQ));
+      // Backward-stable method: residual ≤ c·n·ε·(2‖A‖‖X‖ + ‖Q‖), c = 20 as above.
+      expect(residual).toBeLessThan(20 * n * EPS * (2 * frob(A) * frob(X) + frob(symmetricQ)));
+      // The general Sylvester route (full square, no symmetry used) gives the same X.
+      const general = solveSylvester(A, tr(A), scale(symmetricQ, -1)).X;
+      const kappa = (frob(X) / frob(symmetricQ)) * frob(A);
+      expect(maxAbsDiff(X, general)).toBeLessThan(100 * n * EPS * kappa * frob(X));
+    }
+  });
+
   it('returns a symmetric solution and fails on an imaginary-axis pair (λ = ±i)', () => {
     const { X } = solveLyapunovContinuous([[-1, 2], [-3, -4]], [[1, 0], [0, 1]]);
     expect(X[0][1]).toBe(X[1][0]);

@@ -11,12 +11,14 @@ import {
   denseFromRows,
   denseToRows,
   multiplyDense,
+  multiplyTransposeSymmetricDense,
   normFrobeniusDense,
   transposeDense,
+  transposeMultiplySymmetricDense,
   zerosDense,
 } from './dense';
 import { realSchurDense, type RealSchurDense } from './schur';
-import { quasiTriangularBlocks, solveQuasiTriangularSylvester, solveSmallSystem } from './sylvester';
+import { quasiTriangularBlocks, solveSmallSystem } from './sylvester';
 import type { Rows } from './types';
 
 export interface LyapunovSolution {
@@ -62,20 +64,110 @@ function isFiniteDense(X: Dense): boolean {
 
 /**
  * A·X + X·Aᵀ + Q = 0 on Dense matrices. `schur`, when given, is the real Schur form of A already
- * computed by the caller (it is not recomputed).
+ * computed by the caller (it is not recomputed). Q is taken as (Q + Qᵀ)/2 — by linearity the same
+ * as solving with Q and symmetrising X — so only one triangle of each product and of the
+ * triangular solve is formed, and X is exactly symmetric.
  */
 export function solveLyapunovContinuousDense(A: Dense, Q: Dense, schur?: RealSchurDense): { X: Dense; ok: boolean } {
   const n = A.rows;
   if (invalidInput(A, Q)) return nanResult(A.rows);
   if (n === 0) return { X: zerosDense(0, 0), ok: true };
   const { T: S, Z: U, converged } = schur ?? realSchurDense(A);
-  const F = transformedRightHandSide(U, Q);
+  const symmetricQ = zerosDense(n, n);
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) symmetricQ.data[i * n + j] = -(Q.data[i * n + j] + Q.data[j * n + i]) / 2;
+  // F = −Uᵀ·Q·U, then X = U·Y·Uᵀ: symmetric products.
+  const F = transposeMultiplySymmetricDense(U, multiplyDense(symmetricQ, U));
   // λᵢ + λⱼ counts as zero within 2n·ε·‖A‖_F (rounding of the Schur form).
   const minimumPivot = 2 * n * Number.EPSILON * normFrobeniusDense(A);
-  const solved = solveQuasiTriangularSylvester(S, S, true, F, minimumPivot);
-  const X = multiplyDense(multiplyDense(U, F), transposeDense(U));
-  symmetrise(X);
+  const solved = solveQuasiTriangularLyapunov(S, F, minimumPivot);
+  const X = multiplyTransposeSymmetricDense(multiplyDense(U, F), U);
   return { X, ok: converged && solved && isFiniteDense(X) };
+}
+
+/**
+ * Solves S·Y + Y·Sᵀ = F in place (F becomes Y) for upper quasi-triangular S and symmetric F: the
+ * Bartels–Stewart recursion with op(T) = Sᵀ, on the upper triangle only (Y is symmetric). Column
+ * blocks J from the right; within one, row blocks I ≤ J from the bottom:
+ *   S(I,I)·Y(I,J) + Y(I,J)·S(J,J)ᵀ = F(I,J) − Σ_{k after I} S(I,k)·Y(k,J) − Σ_{l after J} Y(I,l)·S(J,l)ᵀ,
+ * where Y(k,J) = Y(J,k)ᵀ for k after J, so every sum runs along rows: about n³/2 multiply-adds
+ * on contiguous memory. Returns false when a diagonal block system was singular to working
+ * precision (its pivot raised to `minimumPivot`, as solveSmallSystem does).
+ */
+export function solveQuasiTriangularLyapunov(S: Dense, F: Dense, minimumPivot: number): boolean {
+  const n = S.rows;
+  const s = S.data;
+  const y = F.data;
+  const blocks = quasiTriangularBlocks(S);
+  // column[q·n + i]: first the reduced right-hand side of entry (i, j0 + q), then its solution.
+  const column = new Float64Array(2 * n);
+  const small = new Float64Array(16);
+  const rhs = new Float64Array(4);
+  let ok = true;
+  for (let bj = blocks.length - 1; bj >= 0; bj--) {
+    const [j0, jSize] = blocks[bj];
+    const afterJ = j0 + jSize;
+    for (let q = 0; q < jSize; q++) {
+      const jRow = (j0 + q) * n;
+      for (let i = 0; i < afterJ; i++) {
+        const iRow = i * n;
+        let sum = y[iRow + j0 + q];
+        for (let l = afterJ; l < n; l++) sum -= y[iRow + l] * s[jRow + l] + s[iRow + l] * y[jRow + l];
+        column[q * n + i] = sum;
+      }
+    }
+    for (let bi = bj; bi >= 0; bi--) {
+      const [i0, iSize] = blocks[bi];
+      const afterI = i0 + iSize;
+      for (let p = 0; p < iSize; p++) {
+        const iRow = (i0 + p) * n;
+        for (let q = 0; q < jSize; q++) {
+          const offset = q * n;
+          let sum = column[offset + i0 + p];
+          for (let k = afterI; k < afterJ; k++) sum -= s[iRow + k] * column[offset + k];
+          rhs[p * jSize + q] = sum;
+        }
+      }
+      if (iSize === 1 && jSize === 1) {
+        let pivot = s[i0 * n + i0] + s[j0 * n + j0];
+        if (!(Math.abs(pivot) > minimumPivot)) {
+          pivot = minimumPivot > 0 ? minimumPivot : Number.MIN_VALUE;
+          ok = false;
+        }
+        column[i0] = rhs[0] / pivot;
+        continue;
+      }
+      // Kronecker system: Σ_r S(I)[p][r]·y[r][q] + Σ_r y[p][r]·S(J)[q][r] = rhs[p][q].
+      const size = iSize * jSize;
+      small.fill(0);
+      for (let p = 0; p < iSize; p++) {
+        for (let q = 0; q < jSize; q++) {
+          const row = (p * jSize + q) * size;
+          for (let r = 0; r < iSize; r++) small[row + r * jSize + q] += s[(i0 + p) * n + i0 + r];
+          for (let r = 0; r < jSize; r++) small[row + p * jSize + r] += s[(j0 + q) * n + j0 + r];
+        }
+      }
+      if (!solveSmallSystem(small, rhs, size, minimumPivot)) ok = false;
+      for (let p = 0; p < iSize; p++) for (let q = 0; q < jSize; q++) column[q * n + i0 + p] = rhs[p * jSize + q];
+    }
+    // Store column block J and its mirror row block; the diagonal block is made exactly symmetric.
+    for (let q = 0; q < jSize; q++) {
+      for (let i = 0; i < j0; i++) {
+        const value = column[q * n + i];
+        y[i * n + j0 + q] = value;
+        y[(j0 + q) * n + i] = value;
+      }
+    }
+    if (jSize === 1) {
+      y[j0 * n + j0] = column[j0];
+    } else {
+      const offDiagonal = (column[j0 + 1] + column[n + j0]) / 2;
+      y[j0 * n + j0] = column[j0];
+      y[(j0 + 1) * n + j0 + 1] = column[n + j0 + 1];
+      y[j0 * n + j0 + 1] = offDiagonal;
+      y[(j0 + 1) * n + j0] = offDiagonal;
+    }
+  }
+  return ok;
 }
 
 /** A·X·Aᵀ − X + Q = 0 on Dense matrices (`schur`: A's real Schur form, when the caller has it). */
