@@ -5,14 +5,16 @@ import { seededMatrix } from './coreTestMatrices';
 const EPS = Number.EPSILON;
 
 describe('dense product', () => {
-  it('equals the defining sum Σ_k a_ik·b_kj for every shape parity (blocked loop and its edges)', () => {
-    for (const m of [1, 2, 3, 6, 7]) {
-      for (const inner of [1, 2, 5, 8]) {
+  it('equals the defining sum Σ_k a_ik·b_kj for every remainder of the 4×4 blocking (blocked loop and its edges)', () => {
+    for (const m of [1, 2, 3, 6, 7, 9]) {
+      for (const inner of [1, 2, 5, 8, 11]) {
         for (const n of [1, 3, 4]) {
           const a = seededMatrix(m, inner, 10 * m + inner);
           const b = seededMatrix(inner, n, 100 + n);
           // Sparse rows exercise the skipped pairs of zeros.
           if (m > 2) a[1] = a[1].map((v, k) => (k % 3 === 0 ? v : 0));
+          // A whole 4×4 block of zeros (rows 4–7, columns 4–7) exercises the skipped blocks.
+          if (m > 8 && inner > 8) for (let i = 4; i < 8; i++) for (let k = 4; k < 8; k++) a[i][k] = 0;
           const product = multiplyDense(denseFromRows(a), denseFromRows(b));
           expect([product.rows, product.cols]).toEqual([m, n]);
           for (let i = 0; i < m; i++) {
@@ -37,7 +39,7 @@ describe('dense product', () => {
 });
 
 describe('symmetric products (one triangle computed)', () => {
-  it.each([1, 2, 7, 30])('A·S·Aᵀ and Aᵀ·S·A of order %i equal the full products and are exactly symmetric', (n) => {
+  it.each([1, 2, 7, 9, 30])('A·S·Aᵀ and Aᵀ·S·A of order %i equal the full products and are exactly symmetric', (n) => {
     // Identity check against multiplyDense; S symmetric so both products are symmetric.
     const A = denseFromRows(seededMatrix(n, n, 300 + n));
     const raw = seededMatrix(n, n, 400 + n);
