@@ -6,7 +6,7 @@ import { parsePlantText } from '../../grammar/src/index';
 import type { ParseResult } from '../../grammar/src/ast';
 import { checkDocument, checkPlant } from './model/check';
 import type { PlantDecl } from '../../grammar/src/ast';
-import type { CheckedController, CheckedDocument, CheckedPlant, Diagnostic, Rows } from './model/types';
+import type { CheckedController, CheckedDocument, CheckedPlant, Diagnostic } from './model/types';
 import { resolveSettings, type AnalysisSettings } from './control/settings';
 import { analyzePlant, designController, type PlantReport, type ControllerReport } from './control/design';
 import {
@@ -20,6 +20,7 @@ import {
   type RiccatiStartSlot,
 } from './control/controllerDesign';
 import type { FragilityResult } from './control/fragility';
+import type { RiccatiStart } from './control/lqr';
 
 export type { PlantReport, ControllerReport } from './control/design';
 
@@ -76,13 +77,13 @@ export interface SlowOptions {
    */
   helperFromStates?: number;
   /**
-   * Riccati solutions kept from earlier versions of the same document (keys: `riccatiStartKey`): LQR
+   * Riccati solutions (and chord bases) kept from earlier versions of the same document (keys: `riccatiStartKey`): LQR
    * and Kalman designs of plants with at least WARM_START_FROM_STATES states start from them (the solvers'
    * warm start) and keep their new ones there. The route changes, not the equation: results agree
    * with a fresh analysis to the solver's residual target (n·ε), not bit for bit, so only the
    * editor's worker passes a store; the CLI and the report never do.
    */
-  riccatiStarts?: Map<string, Rows>;
+  riccatiStarts?: Map<string, RiccatiStart>;
   /**
    * false: LQR designs leave the Riccati condition estimate out (NaN; two more n×n Schur-form
    * solves). The editor passes false: no editor view shows the estimate, only the CLI's JSON.
@@ -133,12 +134,12 @@ export function riccatiStartKey(controllerName: string, role: RiccatiRole): stri
   return role === 'regulator' ? controllerName : `${controllerName} estimator`;
 }
 
-function riccatiStartSlot(store: Map<string, Rows> | undefined, controller: CheckedController, plant: CheckedPlant | undefined): RiccatiStartSlot | undefined {
+function riccatiStartSlot(store: Map<string, RiccatiStart> | undefined, controller: CheckedController, plant: CheckedPlant | undefined): RiccatiStartSlot | undefined {
   if (!store || !plant || plant.states.length < WARM_START_FROM_STATES) return undefined;
   return {
     recall: (role) => store.get(riccatiStartKey(controller.name, role)),
-    keep: (role, X) => {
-      store.set(riccatiStartKey(controller.name, role), X);
+    keep: (role, start) => {
+      store.set(riccatiStartKey(controller.name, role), start);
     },
   };
 }

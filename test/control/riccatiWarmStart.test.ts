@@ -5,6 +5,7 @@
 import { describe, expect, it } from 'vitest';
 import { analyzeFastCheck, checkText, WARM_START_FROM_STATES } from '../../server/src/analyze';
 import type { Rows } from '../../server/src/model/types';
+import type { RiccatiStart } from '../../server/src/control/lqr';
 import { heatedRodModel as rodModel } from './heatedRod';
 
 const lqrDetails = (analysis: ReturnType<typeof analyzeFastCheck>) => analysis.controllers[0].details.lqr as { warmStarted: boolean; conditionEstimate: number };
@@ -13,10 +14,10 @@ const relativeGap = (a: Rows, b: Rows) => Math.max(...a[0].map((value, j) => Mat
 describe('warm-started LQR designs between document versions', () => {
   it('the next version starts from the kept solution; verdicts equal a fresh analysis and gains agree to the solver accuracy', () => {
     const n = WARM_START_FROM_STATES;
-    const starts = new Map<string, Rows>();
+    const starts = new Map<string, RiccatiStart>();
     const first = analyzeFastCheck(checkText(rodModel(n, '0.5')), {}, { riccatiStarts: starts });
     expect(lqrDetails(first).warmStarted).toBe(false);
-    expect(starts.get('warm')).toHaveLength(n);
+    expect(starts.get('warm')?.X).toHaveLength(n);
 
     const nudged = rodModel(n, '0.5001');
     const warm = analyzeFastCheck(checkText(nudged), {}, { riccatiStarts: starts });
@@ -32,7 +33,7 @@ describe('warm-started LQR designs between document versions', () => {
 
   it('a large edit falls back to the fresh solve, with the same gains bit for bit', () => {
     const n = WARM_START_FROM_STATES;
-    const starts = new Map<string, Rows>();
+    const starts = new Map<string, RiccatiStart>();
     analyzeFastCheck(checkText(rodModel(n, '0.5')), {}, { riccatiStarts: starts });
     // Twenty times the conduction: the old gain is far outside Newton's quadratic phase.
     const changed = rodModel(n, '10');
@@ -43,7 +44,7 @@ describe('warm-started LQR designs between document versions', () => {
 
   it('a Kalman estimator starts from its previous solution too; its gain matches SciPy', () => {
     const n = WARM_START_FROM_STATES;
-    const starts = new Map<string, Rows>();
+    const starts = new Map<string, RiccatiStart>();
     analyzeFastCheck(checkText(rodModel(n, '0.5', true)), {}, { riccatiStarts: starts });
     expect([...starts.keys()].sort()).toEqual(['warm', 'warm estimator']);
     const nudged = rodModel(n, '0.5001', true);
@@ -59,14 +60,17 @@ describe('warm-started LQR designs between document versions', () => {
   });
 
   it('plants below WARM_START_FROM_STATES states neither use nor fill the store', () => {
-    const starts = new Map<string, Rows>();
+    const starts = new Map<string, RiccatiStart>();
     analyzeFastCheck(checkText(rodModel(WARM_START_FROM_STATES - 1, '0.5')), {}, { riccatiStarts: starts });
     expect(starts.size).toBe(0);
   });
 
-  it('the warm-started gain matches SciPy on the 40-segment rod', () => {
-    const starts = new Map<string, Rows>();
+  it('the warm-started gain (chord steps on the previous version\'s basis) matches SciPy on the 40-segment rod', () => {
+    const starts = new Map<string, RiccatiStart>();
     analyzeFastCheck(checkText(rodModel(40, '0.5')), {}, { riccatiStarts: starts });
+    // A version between: its Newton step leaves a chord basis, which the last version's solve uses.
+    analyzeFastCheck(checkText(rodModel(40, '0.50005')), {}, { riccatiStarts: starts });
+    expect(starts.get('warm')?.chordBasis?.schur.T.rows).toBe(40);
     const warm = analyzeFastCheck(checkText(rodModel(40, '0.5001')), {}, { riccatiStarts: starts });
     expect(lqrDetails(warm).warmStarted).toBe(true);
     const K = warm.controllers[0].K![0];

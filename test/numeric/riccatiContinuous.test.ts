@@ -120,6 +120,53 @@ describe('solveContinuousRiccati (Laub Schur method + Newton–Kleinman)', () =>
     expect(warm).toBeGreaterThan(fixture.cases.length / 2);
   });
 
+  it('warm start with a chord basis: chord steps on an earlier solve\'s Schur form reach SciPy\'s solution (fixture)', () => {
+    // The basis comes from a warm solve of the same equation from another start 10⁻⁵ away (a
+    // closed loop 10⁻⁵ out of date, as after an editor's small edit); the chord method must then
+    // carry at least one step wherever the warm start is in its quadratic phase.
+    const random = seededRandom(78);
+    const nearby = (X: number[][]) => {
+      const S = randomMatrix(X.length, X.length, random);
+      const direction = add(S, tr(S));
+      return add(X, scale(direction, (1e-5 * frob(X)) / frob(direction)));
+    };
+    let chorded = 0;
+    for (const c of fixture.cases) {
+      const label = `n=${c.n} m=${c.m}`;
+      const first = solveContinuousRiccati(c.A, c.B, c.Q, c.R, undefined, { start: nearby(c.careX) });
+      if (!first.warmStarted || !first.chordBasis) continue;
+      const second = solveContinuousRiccati(c.A, c.B, c.Q, c.R, undefined, { start: nearby(c.careX), chordBasis: first.chordBasis });
+      const { conditionEstimate } = solveContinuousRiccati(c.A, c.B, c.Q, c.R);
+      expect(second.ok, label).toBe(true);
+      expect(second.residual, label).toBeLessThan(10 * c.n * EPS);
+      expect(maxAbsDiff(second.X, c.careX), label).toBeLessThan(10 * c.n * EPS * conditionEstimate * frob(c.careX));
+      if ((second.chordSteps ?? 0) > 0) chorded++;
+    }
+    expect(chorded).toBeGreaterThan(fixture.cases.length / 2);
+  });
+
+  it('warm start with a chord basis: an unusable or far-off basis changes nothing but the route (fixture)', () => {
+    for (const c of fixture.cases.slice(0, 12)) {
+      const label = `n=${c.n} m=${c.m}`;
+      const cold = solveContinuousRiccati(c.A, c.B, c.Q, c.R);
+      const first = solveContinuousRiccati(c.A, c.B, c.Q, c.R, undefined, { start: scale(c.careX, 1 + 1e-6) });
+      if (!first.chordBasis) continue;
+      // A basis that went through JSON (typed arrays lost) is refused outright.
+      const mangled = JSON.parse(JSON.stringify(first.chordBasis));
+      const refused = solveContinuousRiccati(c.A, c.B, c.Q, c.R, undefined, { start: scale(c.careX, 1 + 1e-6), chordBasis: mangled });
+      expect(refused.chordSteps ?? 0, label).toBe(0);
+      // The closed loop of a design with ten times the input weight: chord steps fail or help; Newton finishes.
+      const otherR = scale(c.R, 10);
+      const other = solveContinuousRiccati(c.A, c.B, c.Q, otherR, undefined, { start: scale(solveContinuousRiccati(c.A, c.B, c.Q, otherR).X, 1 + 1e-6) });
+      const farBasis = solveContinuousRiccati(c.A, c.B, c.Q, c.R, undefined, { start: scale(c.careX, 1 + 1e-6), chordBasis: other.chordBasis });
+      for (const s of [refused, farBasis]) {
+        expect(s.ok, label).toBe(true);
+        expect(s.residual, label).toBeLessThan(10 * c.n * EPS);
+        expect(maxAbsDiff(s.X, c.careX), label).toBeLessThan(10 * c.n * EPS * cold.conditionEstimate * frob(c.careX));
+      }
+    }
+  });
+
   it('warm start: a start that does not stabilise, is far away or has the wrong shape falls back to the Schur route (fixture)', () => {
     let unstable = 0;
     for (const c of fixture.cases) {

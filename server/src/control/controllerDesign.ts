@@ -17,7 +17,7 @@ import { analyzeFragility, fragilityParameterPoints, type FragilityInput, type F
 import { disturbanceRejection } from './disturbanceRejection';
 import { integralActionFeasibility } from './integralAction';
 import { steadyStateKalmanGain } from './kalman';
-import { designLqr, lqrConditionEstimate, type LqrProblem } from './lqr';
+import { designLqr, lqrConditionEstimate, type LqrProblem, type RiccatiStart } from './lqr';
 import { loopMargins, outputFeedbackLoop, stateFeedbackLoop, type LoopMarginsResult, type MarginEvaluations } from './margins';
 import { compareObserverSpeed, defaultObserverPoles, designObserverByPlacement } from './observer';
 import { placePoles } from './placement';
@@ -60,8 +60,8 @@ export type RiccatiRole = 'regulator' | 'estimator';
 
 /** One controller's place in a store of Riccati solutions kept between document versions. */
 export interface RiccatiStartSlot {
-  recall(role: RiccatiRole): Rows | undefined;
-  keep(role: RiccatiRole, X: Rows): void;
+  recall(role: RiccatiRole): RiccatiStart | undefined;
+  keep(role: RiccatiRole, start: RiccatiStart): void;
 }
 
 /** An LQR design's Riccati problem and solution: plain data, cloneable. */
@@ -239,6 +239,8 @@ interface Gains {
   requestedContinuousPoles?: Complex[];
   /** LQR: the Riccati solution X, a Lyapunov (Stein) function of the closed loop A − B·K. */
   riccatiSolution?: Rows;
+  /** LQR: where the next version's design starts (LqrResult.nextStart). */
+  riccatiNextStart?: RiccatiStart;
   /** LQR: the problem solved, for the condition estimate computed after the gains are in use. */
   lqrProblem?: LqrProblem;
   details: Record<string, unknown>;
@@ -253,7 +255,7 @@ function computeGains(
   integratedCount: number,
   settings: AnalysisSettings,
   out: Diagnostic[],
-  riccatiStart?: Rows,
+  riccatiStart?: RiccatiStart,
 ): Gains | null {
   const n = plant.states.length;
   const total = augmented.A.length;
@@ -286,6 +288,7 @@ function computeGains(
       K: lqr.K,
       closedLoopPoles: lqr.closedLoopPoles,
       riccatiSolution: lqr.X ?? undefined,
+      ...(lqr.nextStart ? { riccatiNextStart: lqr.nextStart } : {}),
       lqrProblem: { ...problem, domain: model.domain },
       details: {
         lqr: {
@@ -450,7 +453,7 @@ export function designController(
   const augmented = integrated.length ? integralAugmentation(model, integrated) : { A: model.A, B: model.B };
   const gains = computeGains(controller, plant, model, augmented, integrated.length, settings, out, context.riccatiStart?.recall('regulator'));
   if (!gains) return report;
-  if (gains.riccatiSolution) context.riccatiStart?.keep('regulator', gains.riccatiSolution);
+  if (gains.riccatiNextStart) context.riccatiStart?.keep('regulator', gains.riccatiNextStart);
   if (!gains.K.every((row) => row.every(Number.isFinite))) {
     // Poles or weights beyond the double range: no gain to show, whatever the method said.
     out.push(findings.gainOverflow.create(anchor(controller), [plant.name]));
@@ -736,7 +739,7 @@ function designEstimator(
       out.push(findings.kalmanFailure(spec.range, kalman));
       return null;
     }
-    if (kalman.P) riccatiStart?.keep('estimator', kalman.P);
+    if (kalman.nextStart) riccatiStart?.keep('estimator', kalman.nextStart);
     L = kalman.gain;
     poles = kalman.observerPoles;
     details = { method: 'kalman', L, poles, form, riccatiResidual: kalman.residual, warmStarted: kalman.warmStarted, noiseMeaning: model.domain === 'discrete' ? 'covariances per sample' : 'spectral densities' };

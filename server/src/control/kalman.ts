@@ -11,7 +11,7 @@
 //   "every boundary mode excited by the process noise".
 import type { Complex, Rows } from '../numeric/types';
 import { eigenvalues, solveLinear } from '../numeric';
-import { designLqr } from './lqr';
+import { designLqr, type RiccatiStart } from './lqr';
 import { checkPositiveSemidefinite } from './weightChecks';
 import { transposeRows as transpose, multiplyRows as multiply } from './controlLinearAlgebra';
 
@@ -40,6 +40,8 @@ export interface KalmanResult {
   conditionEstimate: number;
   /** The dual Riccati solve started from `start` (see KalmanProblem.start). */
   warmStarted: boolean;
+  /** What to start the next nearby design from (KalmanProblem.start). */
+  nextStart?: RiccatiStart;
   failure?: KalmanFailure;
   mode?: Complex;
 }
@@ -56,8 +58,8 @@ export interface KalmanProblem {
   domain: 'continuous' | 'discrete';
   /** Discrete only (default 'predictor'). */
   form?: 'predictor' | 'current';
-  /** A nearby problem's P to start the dual Riccati solve from (the solvers' warm start). */
-  start?: Rows;
+  /** A nearby problem's P (and chord basis) to start the dual Riccati solve from (the solvers' warm start). */
+  start?: RiccatiStart;
   /** false: the dual Riccati's condition estimate is left out (NaN in the result). */
   conditionEstimate?: boolean;
 }
@@ -132,5 +134,6 @@ export function steadyStateKalmanGain(problem: KalmanProblem): KalmanResult {
     residual: dual.residual,
     conditionEstimate: dual.conditionEstimate,
     warmStarted: dual.warmStarted,
+    ...(dual.nextStart ? { nextStart: dual.nextStart } : {}),
   };
 }

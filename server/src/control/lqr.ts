@@ -22,6 +22,7 @@ import {
   sortComplex,
 } from '../numeric';
 import type { Complex, Rows } from '../numeric/types';
+import type { ChordBasis } from '../numeric';
 import { analyzeControllability, analyzeObservability, classifyEigenvalue, eigenvalueTolerance } from './structure';
 import { checkPositiveDefinite, checkPositiveSemidefinite } from './weightChecks';
 import { transposeRows as transpose, multiplyRows as multiply } from './controlLinearAlgebra';
@@ -45,6 +46,8 @@ export interface LqrResult {
   conditionEstimate: number;
   /** The Riccati solution was refined from the caller's `start` (see LqrOptions.start). */
   warmStarted: boolean;
+  /** What to start the next nearby design from (LqrOptions.start): X and, when known, a chord basis. */
+  nextStart?: RiccatiStart;
   failure?: LqrFailure;
   /** The offending mode for 'not-stabilisable' / 'not-detectable-on-axis'. */
   mode?: Complex;
@@ -73,7 +76,17 @@ export interface LqrOptions {
    * A stabilising Riccati solution of a nearby problem (the previous edit's) to refine from: the
    * solvers' warm start, which changes the route and not the equation solved.
    */
-  start?: Rows;
+  start?: RiccatiStart;
+}
+
+/**
+ * Where a warm-started Riccati solve begins: a nearby stabilising solution X and, for continuous
+ * designs, the chord basis the solve that produced it left (ChordBasis in numeric/riccatiContinuous).
+ * Plain data and typed arrays: it travels between threads.
+ */
+export interface RiccatiStart {
+  X: Rows;
+  chordBasis?: ChordBasis;
 }
 
 /** The LQR problem data, plain and cloneable (for computing the condition estimate apart). */
@@ -157,8 +170,8 @@ export function designLqr(
 
   const solution =
     domain === 'continuous'
-      ? solveContinuousRiccati(A, B, Q, R, N, { conditionEstimate: options.conditionEstimate, start: options.start })
-      : solveDiscreteRiccati(A, B, Q, R, N, { conditionEstimate: options.conditionEstimate, start: options.start });
+      ? solveContinuousRiccati(A, B, Q, R, N, { conditionEstimate: options.conditionEstimate, start: options.start?.X, chordBasis: options.start?.chordBasis })
+      : solveDiscreteRiccati(A, B, Q, R, N, { conditionEstimate: options.conditionEstimate, start: options.start?.X });
   const classicalMarginsApply = domain === 'continuous' && isDiagonal(R) && isZero(N);
   if (!solution.ok || !solution.X) {
     const structural = structuralFailure();
@@ -207,6 +220,7 @@ export function designLqr(
     residual: solution.residual,
     conditionEstimate: solution.conditionEstimate,
     warmStarted: solution.warmStarted,
+    nextStart: { X, ...(solution.chordBasis ? { chordBasis: solution.chordBasis } : {}) },
     classicalMarginsApply,
   };
 }

@@ -11,7 +11,7 @@ import { availableParallelism } from 'node:os';
 import { MessageChannel, Worker } from 'node:worker_threads';
 import { ANSWERS_POSTED, HELPER_BUSY, HELPER_CELLS, HELPER_GONE } from './analysisHelper';
 import type { AnalysisSettings } from '../control/settings';
-import type { Rows } from '../model/types';
+import type { RiccatiStart } from '../control/lqr';
 import { runSlowAnalysis, type AnalysisJob, type AnalysisReply, type SlowResult } from './slowAnalysis';
 
 // The analyses allocate many short-lived rows; a larger young generation means fewer scavenges
@@ -35,7 +35,7 @@ export class AnalysisRunner {
    * Per document, the Riccati solutions of its last analysed version: the next job's warm starts.
    * Kept here, not in the worker, because a newer edit terminates the worker.
    */
-  private readonly riccatiStarts = new Map<string, Map<string, Rows>>();
+  private readonly riccatiStarts = new Map<string, Map<string, RiccatiStart>>();
   private nextJob = 1;
   private disposed = false;
 

@@ -4,7 +4,8 @@
 import { analyzeFastCheck, checkText, riccatiStartKey, type SlowOptions } from '../analyze';
 import type { AnalysisSettings } from '../control/settings';
 import type { ControllerReport, PlantReport } from '../control/design';
-import type { Diagnostic, Rows } from '../model/types';
+import type { Diagnostic } from '../model/types';
+import type { RiccatiStart } from '../control/lqr';
 
 export interface SlowResult {
   /** All diagnostics of the version, in the order `analyze` gives them. */
@@ -16,7 +17,7 @@ export interface SlowResult {
   settings: AnalysisSettings;
   skipped?: { reason: 'too-large' | 'cancelled'; detail: string };
   /** The LQR and Kalman designs' Riccati solutions (keys: `riccatiStartKey`): the next version's warm starts. */
-  riccatiStarts: Map<string, Rows>;
+  riccatiStarts: Map<string, RiccatiStart>;
 }
 
 export interface AnalysisJob {
@@ -26,7 +27,7 @@ export interface AnalysisJob {
   text: string;
   settings: Partial<AnalysisSettings>;
   /** Riccati solutions of an earlier version of the document (SlowResult.riccatiStarts). */
-  riccatiStarts?: Map<string, Rows>;
+  riccatiStarts?: Map<string, RiccatiStart>;
 }
 
 export type AnalysisReply =
@@ -36,7 +37,7 @@ export type AnalysisReply =
 export function runSlowAnalysis(
   text: string,
   settings: Partial<AnalysisSettings>,
-  options: Omit<SlowOptions, 'riccatiStarts' | 'riccatiConditionEstimate'> & { riccatiStarts?: ReadonlyMap<string, Rows> } = {},
+  options: Omit<SlowOptions, 'riccatiStarts' | 'riccatiConditionEstimate'> & { riccatiStarts?: ReadonlyMap<string, RiccatiStart> } = {},
 ): SlowResult {
   const fast = checkText(text);
   const riccatiStarts = new Map(options.riccatiStarts ?? []);

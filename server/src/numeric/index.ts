@@ -29,6 +29,7 @@ export { matrixSign, matrixSignDense, type MatrixSignResult } from './matrixSign
 export {
   continuousRiccatiConditionEstimate,
   solveContinuousRiccati,
+  type ChordBasis,
   type ContinuousRiccatiOptions,
   type RiccatiFailure,
   type RiccatiSolution,

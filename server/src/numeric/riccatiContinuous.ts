@@ -10,7 +10,11 @@
 // Warm start: given a nearby stabilising solution (the previous edit's, in the editor) the same
 // Newton steps start from it instead (numerical continuation); they must reach the cold route's
 // residual target within WARM_START_STEPS steps, each a clear quadratic-phase gain, or the cold
-// route runs as if no start had been given.
+// route runs as if no start had been given. Given also the Schur form of a recent closed loop (a
+// chord basis, which every Newton step leaves behind), a step first tries that form in place of
+// its own iterate's — the chord method (Kelley, "Iterative Methods for Linear and Nonlinear
+// Equations", SIAM 1995, §5.4): from a start δ away with a basis δ out of date, the step leaves
+// O(δ²) like Newton's, without the n×n Schur form that is most of a Newton step's cost.
 
 import {
   type Dense,
@@ -41,6 +45,8 @@ export const WARM_START_STEPS = 3;
  * outside that phase and the Schur route is cheaper than many linear-phase steps.
  */
 export const WARM_START_MIN_REDUCTION = 100;
+/** Chord steps a warm start may take on a caller's basis before Newton steps take over. */
+export const CHORD_STEPS = 3;
 
 export type RiccatiFailure =
   | 'not-stabilisable'
@@ -64,12 +70,29 @@ export interface RiccatiSolution {
   /** True when the solution was refined from the caller's start rather than solved afresh. */
   warmStarted: boolean;
   /**
+   * The real Schur form the last Newton step solved with (or the caller's basis, while chord steps
+   * on it still succeed): pass it back with the next start (ContinuousRiccatiOptions.chordBasis).
+   * Only the continuous warm route gives one.
+   */
+  chordBasis?: ChordBasis;
+  /** Of `newtonSteps`, those taken as chord steps on the caller's basis (continuous warm route only). */
+  chordSteps?: number;
+  /**
    * First-order relative condition estimate of X: ‖Ω⁻¹‖·(‖Q̄‖ + 2‖Ā‖‖X‖ + ‖G‖‖X‖²)/‖X‖ for the
    * continuous case, with Ω the closed-loop Lyapunov (resp. Stein) operator; ‖Ω⁻¹‖ = ‖Ω⁻¹(I)‖₂
    * exactly because Ω⁻¹ maps positive semidefinite matrices to positive semidefinite ones
    * (Byers 1985; Kenney & Hewer 1990). Infinity when it cannot be formed.
    */
   conditionEstimate: number;
+}
+
+/**
+ * A closed loop's transpose (Ā − G·X)ᵀ for some recent stabilising X, with its real Schur form:
+ * the operator of a chord step. Plain typed arrays, so it travels between threads.
+ */
+export interface ChordBasis {
+  matrix: Dense;
+  schur: RealSchurDense;
 }
 
 // ------------------------------------------------------------------ shared helpers (also used by the discrete solver)
@@ -332,14 +355,23 @@ export interface ContinuousRiccatiOptions {
    * only the route (results agree with the cold route to the residual target n·ε).
    */
   start?: Rows;
+  /** With `start`: the chord basis a previous solve returned (RiccatiSolution.chordBasis). */
+  chordBasis?: ChordBasis;
 }
 
 /**
  * Newton steps from a caller's start X₀ (the warm start): each closed loop Ā − GXⱼ must be stable
  * (read off the Schur form the Lyapunov solve uses), each step must divide the residual by
  * WARM_START_MIN_REDUCTION, and the residual must reach n·ε within WARM_START_STEPS; else null.
+ * With a chord basis, up to CHORD_STEPS chord steps come first: one is kept when it at least
+ * halves the residual, and the chord steps go on while each divides it by
+ * WARM_START_MIN_REDUCTION; then Newton steps (under the rules above) finish the job.
  */
-function continuousNewtonFromStart(equation: ContinuousEquation, start: Rows): { X: Dense; residual: number; steps: number } | null {
+function continuousNewtonFromStart(
+  equation: ContinuousEquation,
+  start: Rows,
+  chordBasis: ChordBasis | undefined,
+): { X: Dense; residual: number; steps: number; chordSteps: number; chordBasis?: ChordBasis } | null {
   const { Abar } = equation;
   const n = Abar.rows;
   if (start.length !== n || !start.every((row) => row.length === n)) return null;
@@ -347,9 +379,27 @@ function continuousNewtonFromStart(equation: ContinuousEquation, start: Rows): {
   if (!allFinite(X)) return null;
   let residual = continuousResidual(equation, X);
   const target = n * EPS;
+  let basis = chordBasis && usableChordBasis(chordBasis, n) ? chordBasis : undefined;
   let steps = 0;
+  let chordSteps = 0;
+  for (let attempts = 0; basis && attempts < CHORD_STEPS && !(residual.normalised <= target); attempts++) {
+    if (!Number.isFinite(residual.normalised)) return null;
+    countIterations();
+    const correction = solveLyapunovContinuousDense(basis.matrix, residual.matrix, basis.schur);
+    if (!correction.ok) break;
+    const candidate = symmetrisedDense(combine(X, 1, correction.X, 1));
+    const candidateResidual = continuousResidual(equation, candidate);
+    if (!(candidateResidual.normalised <= residual.normalised / 2)) break; // the basis is out of date
+    const reduction = residual.normalised / candidateResidual.normalised;
+    X = candidate;
+    residual = candidateResidual;
+    steps++;
+    chordSteps++;
+    if (!(reduction >= WARM_START_MIN_REDUCTION)) break; // linear phase: a Newton step does better
+  }
+  let newtonSteps = 0;
   while (!(residual.normalised <= target)) {
-    if (steps === WARM_START_STEPS || !Number.isFinite(residual.normalised)) return null;
+    if (newtonSteps === WARM_START_STEPS || !Number.isFinite(residual.normalised)) return null;
     countIterations();
     const closedLoopTransposed = transposeDense(combine(Abar, 1, residual.GX, -1));
     const schur = realSchurDense(closedLoopTransposed);
@@ -362,8 +412,29 @@ function continuousNewtonFromStart(equation: ContinuousEquation, start: Rows): {
     X = candidate;
     residual = candidateResidual;
     steps++;
+    newtonSteps++;
+    basis = { matrix: closedLoopTransposed, schur };
   }
-  return { X, residual: residual.normalised, steps };
+  return { X, residual: residual.normalised, steps, chordSteps, ...(basis ? { chordBasis: basis } : {}) };
+}
+
+/**
+ * A chord basis fit for an n-state equation: converged, stable (its Lyapunov operator is then
+ * regular), finite, and of the right shape — it may come from another thread or an old version.
+ */
+function usableChordBasis(basis: ChordBasis, n: number): boolean {
+  const { matrix, schur } = basis;
+  const square = (M: Dense | undefined) => !!M && M.rows === n && M.cols === n && M.data instanceof Float64Array && M.data.length === n * n;
+  return (
+    square(matrix) &&
+    square(schur?.T) &&
+    square(schur?.Z) &&
+    schur.converged === true &&
+    Array.isArray(schur.eigenvalues) &&
+    schur.eigenvalues.length === n &&
+    schur.eigenvalues.every((lambda) => lambda.re < 0) &&
+    allFinite(matrix, schur.T, schur.Z)
+  );
 }
 
 export function solveContinuousRiccati(
@@ -387,10 +458,10 @@ export function solveContinuousRiccati(
 
   const equation = continuousEquation(Abar, Qbar, G, inputs.B, Rinv);
   if (options.start) {
-    const warm = continuousNewtonFromStart(equation, options.start);
+    const warm = continuousNewtonFromStart(equation, options.start, options.chordBasis);
     if (warm) {
       const solution = finishContinuous(inputs, Rinv, Abar, G, Qbar, warm.X, warm.residual, warm.steps, options);
-      if (solution.ok) return { ...solution, warmStarted: true };
+      if (solution.ok) return { ...solution, warmStarted: true, chordSteps: warm.chordSteps, ...(warm.chordBasis ? { chordBasis: warm.chordBasis } : {}) };
     }
   }
 
