@@ -144,7 +144,13 @@ function riccatiStartSlot(store: Map<string, RiccatiStart> | undefined, controll
   };
 }
 
-function largestPlant(fast: FastCheck): number {
+/** Whether a document whose largest plant has `states` states gets the helper thread (analyzeFastCheck's rule). */
+export function usesHelper(states: number, overrides: Partial<AnalysisSettings>, helperFromStates = HELPER_FROM_STATES): boolean {
+  return states >= helperFromStates && states <= resolveSettings(overrides).maxLiveStates;
+}
+
+/** States of the largest plant of a fast-checked document. */
+export function largestPlant(fast: FastCheck): number {
   return Math.max(0, ...fast.model.plants.map((plant) => plant.states.length));
 }
 
@@ -218,7 +224,7 @@ export function analyzeFastCheck(
       },
     };
   }
-  const helper = options.helper && largest >= (options.helperFromStates ?? HELPER_FROM_STATES) ? options.helper : undefined;
+  const helper = options.helper && usesHelper(largest, overrides, options.helperFromStates) ? options.helper : undefined;
   helper?.begin?.();
   if (!helper) {
     for (const plant of fast.model.plants) {

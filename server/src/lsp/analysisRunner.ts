@@ -51,12 +51,13 @@ export class AnalysisRunner {
   }
 
   /** Analyses a version; an older request for the same document resolves as superseded. */
-  analyse(uri: string, version: number, text: string, settings: Partial<AnalysisSettings>): Promise<SlowOutcome> {
+  analyse(uri: string, version: number, text: string, settings: Partial<AnalysisSettings>, largestPlantStates?: number): Promise<SlowOutcome> {
     return new Promise((resolve) => {
       this.cancel(uri);
       // LOOPWRIGHT_WARM_START=0 solves every version afresh (for side-by-side measurement).
       const riccatiStarts = process.env.LOOPWRIGHT_WARM_START === '0' ? undefined : this.riccatiStarts.get(uri);
-      this.queue.set(uri, { job: { job: this.nextJob++, uri, version, text, settings, ...(riccatiStarts ? { riccatiStarts } : {}) }, resolve });
+      const hint = largestPlantStates !== undefined ? { largestPlantStates } : {};
+      this.queue.set(uri, { job: { job: this.nextJob++, uri, version, text, settings, ...hint, ...(riccatiStarts ? { riccatiStarts } : {}) }, resolve });
       this.pump();
     });
   }

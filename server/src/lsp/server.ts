@@ -19,7 +19,7 @@ import {
   type TextDocumentContentChangeEvent,
 } from 'vscode-languageserver';
 import { TextDocument } from 'vscode-languageserver-textdocument';
-import { byPosition, checkText, type DocumentAnalysis, type FastCheck } from '../analyze';
+import { byPosition, checkText, largestPlant, type DocumentAnalysis, type FastCheck } from '../analyze';
 import type { Diagnostic } from '../model/types';
 import { codeActions } from '../ide/codeActions';
 import { codeLenses } from '../ide/codeLens';
@@ -254,7 +254,7 @@ export function startServer(connection: Connection, options: ServerOptions = {})
   /** The slow analyses of `text` (version `version`); published only if the document is still at that version and its fast check too. */
   async function analyseSlow(state: DocumentState, version: number, text: string): Promise<void> {
     const uri = state.document.uri;
-    const outcome = await runner.analyse(uri, version, text, settings.analysis);
+    const outcome = await runner.analyse(uri, version, text, settings.analysis, largestPlant(state.fast));
     // A result for an older text is never published.
     if (documents.get(uri) !== state || state.fastVersion !== version || state.document.version !== version) return;
     if ('superseded' in outcome) return;

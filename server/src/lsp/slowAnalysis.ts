@@ -26,6 +26,12 @@ export interface AnalysisJob {
   version: number;
   text: string;
   settings: Partial<AnalysisSettings>;
+  /**
+   * States of the document's largest plant by the server's latest fast check (of this text or the
+   * one before): a hint to start the helper thread before the worker's own parse, so the two parses
+   * overlap. The worker's own check still decides whether the helper's answers are used.
+   */
+  largestPlantStates?: number;
   /** Riccati solutions of an earlier version of the document (SlowResult.riccatiStarts). */
   riccatiStarts?: Map<string, RiccatiStart>;
 }

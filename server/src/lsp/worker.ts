@@ -5,6 +5,7 @@
 // the server links each worker to it with a fresh MessageChannel and shared cells.
 import { type MessagePort, parentPort, workerData } from 'node:worker_threads';
 import { helperForJob, serveAsHelper } from './analysisHelper';
+import { usesHelper } from '../analyze';
 import { numberFromEnvironment } from './settings';
 import { traceMark } from './trace';
 import { cloneable, runSlowAnalysis, type AnalysisJob, type AnalysisReply } from './slowAnalysis';
@@ -39,6 +40,8 @@ if ((workerData as { role?: string } | null)?.role === 'helper') {
     let reply: AnalysisReply;
     try {
       const link = helper ? helperForJob(helper.port, helper.cells, job.job, job.text, job.settings) : undefined;
+      // The server's fast check says the document is large: the helper parses alongside this thread.
+      if (link && job.largestPlantStates !== undefined && usesHelper(job.largestPlantStates, job.settings, helperFromStates)) link.begin?.();
       reply = { job: job.job, uri: job.uri, version: job.version, result: runSlowAnalysis(job.text, job.settings, { helper: link, helperFromStates, riccatiStarts: job.riccatiStarts }) };
     } catch (error) {
       reply = { job: job.job, uri: job.uri, version: job.version, error: error instanceof Error ? error.stack ?? error.message : String(error) };
