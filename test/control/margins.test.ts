@@ -208,6 +208,24 @@ describe('frequency evaluation', () => {
     },
   );
 
+  it('evaluating many points at once (four per pass) gives exactly the one-point values and flags, on the NumPy fixture', async () => {
+    const { schurTransferEvaluator } = await import('../../server/src/control/frequencyResponse');
+    const { reference } = await import('./controlTestHelpers');
+    for (const c of reference.frequencyResponse) {
+      const evaluate = schurTransferEvaluator(c.A, c.B, c.C, c.D)!;
+      // Seven points: one full batch and a short one; one of them on the imaginary axis pole-free,
+      // one off the axis (discrete-style points are complex too).
+      const points = [...c.omegas.map((omega) => ({ re: 0, im: omega })), { re: -0.3, im: 2 }, { re: 0.5, im: -1 }].slice(0, 7);
+      const together = evaluate.many!(points);
+      expect(together).toHaveLength(points.length);
+      points.forEach((point, k) => expect(together[k]).toEqual(evaluate(point)));
+    }
+    // A point on an eigenvalue inside a batch is flagged there alone.
+    const A = [[-1, 0, 0], [0, 0, 5], [0, -5, 0]];
+    const evaluate = schurTransferEvaluator(A, [[1], [1], [1]], [[1, 1, 1]], [[0]])!;
+    expect(evaluate.many!([{ re: 0, im: 4 }, { re: 0, im: 5 }, { re: 0, im: 6 }, { re: -1, im: 0 }, { re: 0, im: 1 }]).map((r) => r.singular)).toEqual([false, true, false, true, false]);
+  });
+
   it('flags an evaluation point on an eigenvalue as singular (Schur route, real and complex blocks)', async () => {
     const { schurTransferEvaluator } = await import('../../server/src/control/frequencyResponse');
     // Poles at −1 and ±5j.

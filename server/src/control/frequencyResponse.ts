@@ -9,7 +9,10 @@
 import type { Complex, ComplexRows, Rows } from '../numeric/types';
 import { denseFromRows, hessenbergDecomposition, realSchurDense, type RealSchurDense } from '../numeric';
 
-export type TransferEvaluator = (point: Complex) => { value: ComplexRows; singular: boolean };
+export type TransferEvaluator = ((point: Complex) => { value: ComplexRows; singular: boolean }) & {
+  /** The same values at many points, faster where the evaluator can share work between them. */
+  many?: (points: Complex[]) => { value: ComplexRows; singular: boolean }[];
+};
 
 /**
  * Precomputes the real Schur form of A (or, failing that, its Hessenberg form); the returned
@@ -57,7 +60,8 @@ export function schurTransferEvaluator(A: Rows, B: Rows, C: Rows, D: Rows, schur
   const pivotFloor = n * Number.EPSILON * Math.max(scale, Number.MIN_VALUE);
   const xr = new Float64Array(n * m);
   const xi = new Float64Array(n * m);
-  return (point: Complex) => {
+  const block = new Float64Array(4);
+  const evaluate = (point: Complex) => {
     const lr = point.re;
     const li = point.im;
     let singular = false;
@@ -65,7 +69,6 @@ export function schurTransferEvaluator(A: Rows, B: Rows, C: Rows, D: Rows, schur
     for (let i = n - 1; i >= 0; ) {
       const pair = i > 0 && t[i * n + i - 1] !== 0;
       const top = pair ? i - 1 : i;
-      const size = pair ? 2 : 1;
       for (let j = 0; j < m; j++) {
         // r_q = b̃_q + Σ_{k beyond the block} T[q][k]·x_k for the block's rows q.
         let r0r = bt[top * m + j];
@@ -86,55 +89,151 @@ export function schurTransferEvaluator(A: Rows, B: Rows, C: Rows, D: Rows, schur
             r1i += t1 * y;
           }
         }
-        if (size === 1) {
-          const dr = lr - t[row0 + top];
-          const d = dr * dr + li * li;
-          if (Math.sqrt(d) <= pivotFloor) singular = true;
-          xr[top * m + j] = (r0r * dr + r0i * li) / d;
-          xi[top * m + j] = (r0i * dr - r0r * li) / d;
-        } else {
-          // [λ − a, −b; −c, λ − d]·[x0; x1] = [r0; r1], Gaussian elimination with row pivoting.
-          let a00r = lr - t[row0 + top];
-          let a00i = li;
-          let a01r = -t[row0 + i];
-          let a01i = 0;
-          let a10r = -t[row1 + top];
-          let a10i = 0;
-          let a11r = lr - t[row1 + i];
-          let a11i = li;
-          if (a10r * a10r + a10i * a10i > a00r * a00r + a00i * a00i) {
-            [a00r, a00i, a01r, a01i, a10r, a10i, a11r, a11i] = [a10r, a10i, a11r, a11i, a00r, a00i, a01r, a01i];
-            [r0r, r0i, r1r, r1i] = [r1r, r1i, r0r, r0i];
-          }
-          const p0 = a00r * a00r + a00i * a00i;
-          if (Math.sqrt(p0) <= pivotFloor) {
-            singular = true;
-            xr[top * m + j] = xi[top * m + j] = xr[i * m + j] = xi[i * m + j] = NaN;
-            continue;
-          }
-          // factor = a10 / a00
-          const fr = (a10r * a00r + a10i * a00i) / p0;
-          const fi = (a10i * a00r - a10r * a00i) / p0;
-          const b11r = a11r - (fr * a01r - fi * a01i);
-          const b11i = a11i - (fr * a01i + fi * a01r);
-          const s1r = r1r - (fr * r0r - fi * r0i);
-          const s1i = r1i - (fr * r0i + fi * r0r);
-          const p1 = b11r * b11r + b11i * b11i;
-          if (Math.sqrt(p1) <= pivotFloor) singular = true;
-          const x1r = (s1r * b11r + s1i * b11i) / p1;
-          const x1i = (s1i * b11r - s1r * b11i) / p1;
-          const u0r = r0r - (a01r * x1r - a01i * x1i);
-          const u0i = r0i - (a01r * x1i + a01i * x1r);
-          xr[top * m + j] = (u0r * a00r + u0i * a00i) / p0;
-          xi[top * m + j] = (u0i * a00r - u0r * a00i) / p0;
-          xr[i * m + j] = x1r;
-          xi[i * m + j] = x1i;
+        if (!solveDiagonalBlock(lr, li, t, n, top, pair, r0r, r0i, r1r, r1i, pivotFloor, block)) singular = true;
+        xr[top * m + j] = block[0];
+        xi[top * m + j] = block[1];
+        if (pair) {
+          xr[i * m + j] = block[2];
+          xi[i * m + j] = block[3];
         }
       }
-      i -= size;
+      i -= pair ? 2 : 1;
     }
     return { value: outputCombination(ct, xr, xi, D, n, m, p), singular };
   };
+  // Four points per pass over T (x stored point-minor: entry (k, j) of point q at (k·m + j)·4 + q):
+  // each loaded entry of T serves four right-hand sides, and the eight sums per row are
+  // independent. Each point's sums run in the same order as `evaluate`'s, so the values are the same.
+  const batchXr = new Float64Array(n * m * BATCH);
+  const batchXi = new Float64Array(n * m * BATCH);
+  const pointXr = new Float64Array(n * m);
+  const pointXi = new Float64Array(n * m);
+  const many = (points: Complex[]) => {
+    const results: { value: ComplexRows; singular: boolean }[] = [];
+    for (let first = 0; first < points.length; first += BATCH) {
+      // A short last batch repeats its last point (computed, not returned).
+      const batch = Array.from({ length: BATCH }, (_, q) => points[Math.min(first + q, points.length - 1)]);
+      const singular = [false, false, false, false];
+      for (let i = n - 1; i >= 0; ) {
+        const pair = i > 0 && t[i * n + i - 1] !== 0;
+        const top = pair ? i - 1 : i;
+        const row0 = top * n;
+        const row1 = i * n;
+        for (let j = 0; j < m; j++) {
+          const b0 = bt[top * m + j];
+          const b1 = pair ? bt[i * m + j] : 0;
+          let re0 = b0, re1 = b0, re2 = b0, re3 = b0;
+          let im0 = 0, im1 = 0, im2 = 0, im3 = 0;
+          let se0 = b1, se1 = b1, se2 = b1, se3 = b1;
+          let sim0 = 0, sim1 = 0, sim2 = 0, sim3 = 0;
+          for (let k = i + 1; k < n; k++) {
+            const at = (k * m + j) * BATCH;
+            const t0 = t[row0 + k];
+            const x0 = batchXr[at], x1 = batchXr[at + 1], x2 = batchXr[at + 2], x3 = batchXr[at + 3];
+            const y0 = batchXi[at], y1 = batchXi[at + 1], y2 = batchXi[at + 2], y3 = batchXi[at + 3];
+            re0 += t0 * x0; re1 += t0 * x1; re2 += t0 * x2; re3 += t0 * x3;
+            im0 += t0 * y0; im1 += t0 * y1; im2 += t0 * y2; im3 += t0 * y3;
+            if (pair) {
+              const t1 = t[row1 + k];
+              se0 += t1 * x0; se1 += t1 * x1; se2 += t1 * x2; se3 += t1 * x3;
+              sim0 += t1 * y0; sim1 += t1 * y1; sim2 += t1 * y2; sim3 += t1 * y3;
+            }
+          }
+          const sums = [re0, im0, se0, sim0, re1, im1, se1, sim1, re2, im2, se2, sim2, re3, im3, se3, sim3];
+          for (let q = 0; q < BATCH; q++) {
+            const point = batch[q];
+            const o = q * 4;
+            if (!solveDiagonalBlock(point.re, point.im, t, n, top, pair, sums[o], sums[o + 1], sums[o + 2], sums[o + 3], pivotFloor, block)) singular[q] = true;
+            batchXr[(top * m + j) * BATCH + q] = block[0];
+            batchXi[(top * m + j) * BATCH + q] = block[1];
+            if (pair) {
+              batchXr[(i * m + j) * BATCH + q] = block[2];
+              batchXi[(i * m + j) * BATCH + q] = block[3];
+            }
+          }
+        }
+        i -= pair ? 2 : 1;
+      }
+      for (let q = 0; q < BATCH && first + q < points.length; q++) {
+        for (let e = 0; e < n * m; e++) {
+          pointXr[e] = batchXr[e * BATCH + q];
+          pointXi[e] = batchXi[e * BATCH + q];
+        }
+        results.push({ value: outputCombination(ct, pointXr, pointXi, D, n, m, p), singular: singular[q] });
+      }
+    }
+    return results;
+  };
+  return Object.assign(evaluate, { many });
+}
+
+/** Right-hand sides solved together by a TransferEvaluator's `many`. */
+const BATCH = 4;
+
+/**
+ * One diagonal block of (λI − T)·x = r (1×1, or 2×2 rows top and top + 1 when `pair`), complex λ:
+ * x into out (x₀ real, imaginary; x₁ real, imaginary). False when a pivot is at most pivotFloor
+ * (λ numerically an eigenvalue); a 2×2 block with a vanishing first pivot gives NaN.
+ */
+function solveDiagonalBlock(
+  lr: number,
+  li: number,
+  t: Float64Array,
+  n: number,
+  top: number,
+  pair: boolean,
+  r0r: number,
+  r0i: number,
+  r1r: number,
+  r1i: number,
+  pivotFloor: number,
+  out: Float64Array,
+): boolean {
+  const row0 = top * n;
+  if (!pair) {
+    const dr = lr - t[row0 + top];
+    const d = dr * dr + li * li;
+    out[0] = (r0r * dr + r0i * li) / d;
+    out[1] = (r0i * dr - r0r * li) / d;
+    return !(Math.sqrt(d) <= pivotFloor);
+  }
+  const i = top + 1;
+  const row1 = i * n;
+  // [λ − a, −b; −c, λ − d]·[x0; x1] = [r0; r1], Gaussian elimination with row pivoting.
+  let a00r = lr - t[row0 + top];
+  let a00i = li;
+  let a01r = -t[row0 + i];
+  let a01i = 0;
+  let a10r = -t[row1 + top];
+  let a10i = 0;
+  let a11r = lr - t[row1 + i];
+  let a11i = li;
+  if (a10r * a10r + a10i * a10i > a00r * a00r + a00i * a00i) {
+    [a00r, a00i, a01r, a01i, a10r, a10i, a11r, a11i] = [a10r, a10i, a11r, a11i, a00r, a00i, a01r, a01i];
+    [r0r, r0i, r1r, r1i] = [r1r, r1i, r0r, r0i];
+  }
+  const p0 = a00r * a00r + a00i * a00i;
+  if (Math.sqrt(p0) <= pivotFloor) {
+    out.fill(NaN);
+    return false;
+  }
+  // factor = a10 / a00
+  const fr = (a10r * a00r + a10i * a00i) / p0;
+  const fi = (a10i * a00r - a10r * a00i) / p0;
+  const b11r = a11r - (fr * a01r - fi * a01i);
+  const b11i = a11i - (fr * a01i + fi * a01r);
+  const s1r = r1r - (fr * r0r - fi * r0i);
+  const s1i = r1i - (fr * r0i + fi * r0r);
+  const p1 = b11r * b11r + b11i * b11i;
+  const x1r = (s1r * b11r + s1i * b11i) / p1;
+  const x1i = (s1i * b11r - s1r * b11i) / p1;
+  const u0r = r0r - (a01r * x1r - a01i * x1i);
+  const u0i = r0i - (a01r * x1i + a01i * x1r);
+  out[0] = (u0r * a00r + u0i * a00i) / p0;
+  out[1] = (u0i * a00r - u0r * a00i) / p0;
+  out[2] = x1r;
+  out[3] = x1i;
+  return !(Math.sqrt(p1) <= pivotFloor);
 }
 
 /** C̃·X + D for the solved X (n × m, split into real and imaginary parts). */

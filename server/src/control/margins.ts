@@ -249,6 +249,12 @@ export function loopMargins(
     }
     return value;
   };
+  // The grid at once: the Schur evaluator solves four frequencies per pass (the same values).
+  if (evaluate.many) {
+    const missing = grid.filter((omega) => !evaluated.has(omega));
+    const values = evaluate.many(missing.map((omega) => frequencyPoint(omega, domain, T)));
+    missing.forEach((omega, k) => evaluated.set(omega, values[k].value));
+  }
   const perInput: InputLoopMargins[] = [];
   for (let channel = 0; channel < m; channel++) {
     const at = (omega: number): Complex => loopAtInput(matrixAt(omega), channel);
