@@ -281,7 +281,14 @@ export class ValueEvaluator {
       if (!arity('1 argument (the size)', values.length === 1)) return null;
       const n = this.wholeNumber(name, expr.args[0]!, values[0]!, 'the size');
       if (n === null) return null;
-      return matrixOf(Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => (i === j ? { re: 1, im: 0 } : zero))));
+      const one: Complex = { re: 1, im: 0 };
+      const entries: Complex[][] = [];
+      for (let i = 0; i < n; i++) {
+        const row = new Array<Complex>(n).fill(zero);
+        row[i] = one;
+        entries.push(row);
+      }
+      return matrixOf(entries);
     }
     if (name === 'zeros') {
       if (!arity('2 arguments (rows, columns)', values.length === 2)) return null;

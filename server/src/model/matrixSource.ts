@@ -47,15 +47,11 @@ export function evaluateSourcedMatrix(expr: Expr, scope: ValueScope, out: Diagno
   if (complexEntry) {
     out.push(notReal.create(expr.range, [printExpr(expr), Cx.formatComplex(complexEntry), scope.place]));
   }
-  return {
-    rows,
-    literal: false,
-    source: {
-      range: expr.range,
-      rowRanges: rows.map(() => expr.range),
-      entryRanges: rows.map((row) => row.map(() => expr.range)),
-    },
-  };
+  // Every entry's range is the whole expression's (`identity(100)`): built only when asked for.
+  const source = { range: expr.range } as MatrixSource;
+  defineLazyProperty(source, 'rowRanges', () => rows.map(() => expr.range));
+  defineLazyProperty(source, 'entryRanges', () => rows.map((row) => row.map(() => expr.range)));
+  return { rows, literal: false, source };
 }
 
 /**
