@@ -455,6 +455,14 @@ class PlantParser extends EmbeddedActionsParser {
       lastComma = undefined;
       afterStray = false;
     };
+    const afterComma = (comma: IToken): void => {
+      if (entries.length === 0 || lastComma) {
+        this.report('syntax/missing-expression', 'expected a matrix entry before `,`', comma.startOffset, tokenEnd(comma));
+        entries.push({ kind: 'error', ...this.tokenSpan(comma) });
+      }
+      lastComma = comma;
+      afterStray = false;
+    };
     // One alternatives array per matrix (not per entry): large matrices allocate far less.
     const alternatives = [
       {
@@ -472,13 +480,7 @@ class PlantParser extends EmbeddedActionsParser {
       {
         ALT: () => {
           const comma = this.CONSUME(T.Comma);
-          if (recording) return;
-          if (entries.length === 0 || lastComma) {
-            this.report('syntax/missing-expression', 'expected a matrix entry before `,`', comma.startOffset, tokenEnd(comma));
-            entries.push({ kind: 'error', ...this.tokenSpan(comma) });
-          }
-          lastComma = comma;
-          afterStray = false;
+          if (!recording) afterComma(comma);
         },
       },
       {
@@ -513,7 +515,28 @@ class PlantParser extends EmbeddedActionsParser {
         },
       },
     ];
-    this.MANY(() => this.OR(alternatives));
+    // Runs of separators and simple entries (most of a large matrix) are read straight from the
+    // tokens, exactly as the alternatives would read them, without a lookahead and a rule call per
+    // token; anything else goes back through the alternatives.
+    const readSimpleRun = (): void => {
+      for (;;) {
+        const type = this.LA(1).tokenType;
+        if (type === T.Semicolon || type === T.Newline) {
+          this.consume(9, type);
+          endRow();
+        } else if (type === T.Comma) {
+          afterComma(this.consume(10, T.Comma));
+        } else {
+          const quick = this.quickMatrixEntry();
+          if (!quick) return;
+          addEntry(quick);
+        }
+      }
+    };
+    this.MANY(() => {
+      this.OR(alternatives);
+      if (!recording && this.quickEntries) readSimpleRun();
+    });
     const close = this.OPTION(() => this.CONSUME(T.RSquare));
     return this.ACTION((): MatrixExpr => {
       endRow();
