@@ -18,7 +18,7 @@ import {
   zerosDense,
 } from './dense';
 import { realSchurDense, type RealSchurDense } from './schur';
-import { quasiTriangularBlocks, solveSmallSystem } from './sylvester';
+import { kroneckerBlockSystem, quasiTriangularBlocks, solveSmallSystem } from './sylvester';
 import type { Rows } from './types';
 
 export interface LyapunovSolution {
@@ -136,17 +136,9 @@ export function solveQuasiTriangularLyapunov(S: Dense, F: Dense, minimumPivot: n
         column[i0] = rhs[0] / pivot;
         continue;
       }
-      // Kronecker system: Σ_r S(I)[p][r]·y[r][q] + Σ_r y[p][r]·S(J)[q][r] = rhs[p][q].
-      const size = iSize * jSize;
-      small.fill(0);
-      for (let p = 0; p < iSize; p++) {
-        for (let q = 0; q < jSize; q++) {
-          const row = (p * jSize + q) * size;
-          for (let r = 0; r < iSize; r++) small[row + r * jSize + q] += s[(i0 + p) * n + i0 + r];
-          for (let r = 0; r < jSize; r++) small[row + p * jSize + r] += s[(j0 + q) * n + j0 + r];
-        }
-      }
-      if (!solveSmallSystem(small, rhs, size, minimumPivot)) ok = false;
+      // S(I)·Y + Y·S(J)ᵀ = rhs: the Sylvester block system with T = S transposed.
+      kroneckerBlockSystem(small, s, n, i0, iSize, s, n, j0, jSize, true);
+      if (!solveSmallSystem(small, rhs, iSize * jSize, minimumPivot)) ok = false;
       for (let p = 0; p < iSize; p++) for (let q = 0; q < jSize; q++) column[q * n + i0 + p] = rhs[p * jSize + q];
     }
     // Store column block J and its mirror row block; the diagonal block is made exactly symmetric.

@@ -34,6 +34,35 @@ export function quasiTriangularBlocks(s: Dense): Array<[number, number]> {
 }
 
 /**
+ * Fills `small` (size iSize·jSize squared) with the Kronecker matrix of the block equation
+ * S(I,I)·Y + Y·op(T)(J,J) = R, unknowns ordered y[p][q] → p·jSize + q: row (p, q) holds S(I)[p][r]
+ * at (r, q) and op(T)(J)[r][q] at (p, r). T is m×m, stored row-major; op is the transpose when
+ * `transposeT` (the Lyapunov case S·Y + Y·Sᵀ passes T = S, transposed).
+ */
+export function kroneckerBlockSystem(
+  small: Float64Array,
+  s: Float64Array,
+  n: number,
+  i0: number,
+  iSize: number,
+  t: Float64Array,
+  m: number,
+  j0: number,
+  jSize: number,
+  transposeT: boolean,
+): void {
+  const size = iSize * jSize;
+  small.fill(0, 0, size * size);
+  for (let p = 0; p < iSize; p++) {
+    for (let q = 0; q < jSize; q++) {
+      const row = (p * jSize + q) * size;
+      for (let r = 0; r < iSize; r++) small[row + r * jSize + q] += s[(i0 + p) * n + i0 + r];
+      for (let r = 0; r < jSize; r++) small[row + p * jSize + r] += transposeT ? t[(j0 + q) * m + j0 + r] : t[(j0 + r) * m + j0 + q];
+    }
+  }
+}
+
+/**
  * Solves the small dense system M·x = r (size ≤ 4) by Gaussian elimination with complete pivoting.
  * Pivots below `minimumPivot` are raised to it (as LAPACK dlasy2 does) so the result stays finite;
  * the return value says whether that happened.
@@ -142,17 +171,8 @@ export function solveQuasiTriangularSylvester(
           rhs[p * jSize + q] = sum;
         }
       }
-      // Kronecker system: Σ_r S(I)[p][r]·y[r][q] + Σ_r y[p][r]·op(T)(J)[r][q] = rhs[p][q].
-      const size = iSize * jSize;
-      small.fill(0);
-      for (let p = 0; p < iSize; p++) {
-        for (let q = 0; q < jSize; q++) {
-          const row = (p * jSize + q) * size;
-          for (let r = 0; r < iSize; r++) small[row + r * jSize + q] += s[(i0 + p) * n + i0 + r];
-          for (let r = 0; r < jSize; r++) small[row + p * jSize + r] += opT(j0 + r, j0 + q);
-        }
-      }
-      if (!solveSmallSystem(small, rhs, size, minimumPivot)) ok = false;
+      kroneckerBlockSystem(small, s, n, i0, iSize, t, m, j0, jSize, transposeT);
+      if (!solveSmallSystem(small, rhs, iSize * jSize, minimumPivot)) ok = false;
       for (let p = 0; p < iSize; p++) for (let q = 0; q < jSize; q++) y[(i0 + p) * m + j0 + q] = rhs[p * jSize + q];
     }
     for (let q = 0; q < jSize; q++) done[j0 + q] = 1;
