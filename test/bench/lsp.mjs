@@ -28,6 +28,16 @@ if (!existsSync(serverBundle)) {
 }
 
 const args = process.argv.slice(2);
+
+// The machine's CPU ticks from /proc/stat (Linux; null elsewhere): the share taken by the
+// hypervisor (steal) while a measurement runs says how loaded a shared machine was.
+function machineTicks() {
+  if (!existsSync('/proc/stat')) return null;
+  const fields = readFileSync('/proc/stat', 'utf8').split('\n')[0].trim().split(/\s+/).slice(1).map(Number);
+  return { steal: fields[7] ?? 0, total: fields.reduce((sum, value) => sum + value, 0) };
+}
+const stealPercent = (before, after) =>
+  before && after && after.total > before.total ? ((100 * (after.steal - before.steal)) / (after.total - before.total)).toFixed(1) : '—';
 const option = (name, fallback) => {
   const index = args.indexOf(name);
   return index >= 0 && args[index + 1] !== undefined ? Number(args[index + 1]) : fallback;
@@ -318,8 +328,9 @@ if (args.includes('--compare')) {
   const rows = [];
   const sizes = args.includes('--sizes') ? String(args[args.indexOf('--sizes') + 1]).split(',').map(Number) : [10, 100];
   for (const n of sizes) {
+    const ticksBefore = machineTicks();
     const { fast, full } = await measureEdits(n, edits);
-    rows.push([`${n} states`, ms(percentile(fast, 50)), ms(percentile(fast, 95)), ms(percentile(full, 50)), ms(percentile(full, 95))]);
+    rows.push([`${n} states`, ms(percentile(fast, 50)), ms(percentile(fast, 95)), ms(percentile(full, 50)), ms(percentile(full, 95)), stealPercent(ticksBefore, machineTicks())]);
   }
   // The analysis helper thread on and off, side by side: blocks of 50 edits alternate between a
   // server with the helper and one without (LOOPWRIGHT_ANALYSIS_THREADS=1), so machine load
@@ -339,7 +350,7 @@ if (args.includes('--compare')) {
   }
   const hover = await measureHoverDuringAnalysis(200, option('--hovers', 50));
   console.log(`didChange → diagnostics, debounce 0, ${edits} edits (milliseconds)`);
-  console.log('model       fast p50  fast p95  full p50  full p95');
+  console.log('model       fast p50  fast p95  full p50  full p95  steal %');
   for (const row of rows) console.log(`${row[0].padEnd(10)}  ${row.slice(1).map((cell) => cell.padStart(8)).join('  ')}`);
   const helperMedian = percentile(withHelper, 50);
   const singleMedian = percentile(withoutHelper, 50);
