@@ -29,8 +29,9 @@ if (!existsSync(serverBundle)) {
 
 const args = process.argv.slice(2);
 
-// The machine's CPU ticks from /proc/stat (Linux; null elsewhere): the share taken by the
-// hypervisor (steal) while a measurement runs says how loaded a shared machine was.
+// The machine's CPU ticks from /proc/stat (Linux; null elsewhere): the share the hypervisor took
+// (steal) while a measurement ran. A high share marks a loaded shared machine; a low one does not
+// clear it (contention the hypervisor does not count as steal leaves no trace here).
 function machineTicks() {
   if (!existsSync('/proc/stat')) return null;
   const fields = readFileSync('/proc/stat', 'utf8').split('\n')[0].trim().split(/\s+/).slice(1).map(Number);

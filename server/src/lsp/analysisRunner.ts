@@ -20,9 +20,10 @@ import { runSlowAnalysis, type AnalysisJob, type AnalysisReply, type SlowResult 
 const WORKER_LIMITS = { maxYoungGenerationSizeMb: 64 };
 
 // After each full (mark-compact) collection of an analysis thread's heap, V8 compiles much of the
-// analysis code again (the optimised code of its short-lived closures does not survive it); with
-// V8's default heap sizing a 100-state edit filled the old generation often enough that the
-// background compiler used more CPU than the server's main thread. A larger initial old
+// analysis code again (seen with --trace-opt: the transfer evaluator's closures, for one, were
+// optimised anew after every full collection); with V8's default heap sizing a 100-state edit
+// filled the old generation often enough that the background compiler used more CPU than the
+// server's main thread. A larger initial old
 // generation makes full collections rarer (measured, 60 edits of the 100-state rod in one thread:
 // 9 → 2 full collections, 15 → 7 optimising compilations per edit). V8 reads the flag when an
 // isolate is created, so it is set once before the first thread starts; the main thread's heap
