@@ -265,6 +265,72 @@ describe('frequency evaluation', () => {
   });
 });
 
+describe('modal evaluation (models of MODAL_FROM_STATES states and more)', () => {
+  it('agrees with NumPy (LAPACK zgesv) on the fixture, forced on at every size, including beside a ζ = 0.01 resonance', async () => {
+    const { schurTransferEvaluator } = await import('../../server/src/control/frequencyResponse');
+    const { reference } = await import('./controlTestHelpers');
+    for (const c of reference.frequencyResponse) {
+      const evaluate = schurTransferEvaluator(c.A, c.B, c.C, c.D, undefined, 0)!;
+      // The random A of the fixture are far from defective: the modal route is taken.
+      expect(evaluate.route).toBe('modal');
+      c.omegas.forEach((omega, k) => {
+        const { value } = evaluate({ re: 0, im: omega });
+        const expected = c.G[k];
+        let size = 0;
+        for (let i = 0; i < 2; i++) for (let j = 0; j < 2; j++) size = Math.max(size, Math.hypot(expected.re[i][j], expected.im[i][j]));
+        for (let i = 0; i < 2; i++) for (let j = 0; j < 2; j++) {
+          // Same tolerance as the Schur and Hessenberg routes above.
+          const tolerance = (omega === 4.99 && c.n === 8 ? 1e4 : 1e3) * c.n * Number.EPSILON * size;
+          expect(Math.hypot(value.re[i][j] - expected.re[i][j], value.im[i][j] - expected.im[i][j])).toBeLessThan(tolerance);
+        }
+      });
+    }
+  });
+
+  it('is taken by default from MODAL_FROM_STATES states on, and many points at once equal one at a time', async () => {
+    const { schurTransferEvaluator, MODAL_FROM_STATES } = await import('../../server/src/control/frequencyResponse');
+    const { reference } = await import('./controlTestHelpers');
+    const large = reference.frequencyResponse.find((c) => c.n === 60)!;
+    const small = reference.frequencyResponse.find((c) => c.n === 20)!;
+    expect(small.n).toBeLessThan(MODAL_FROM_STATES);
+    expect(schurTransferEvaluator(small.A, small.B, small.C, small.D)!.route).toBe('schur');
+    const evaluate = schurTransferEvaluator(large.A, large.B, large.C, large.D)!;
+    expect(evaluate.route).toBe('modal');
+    const points = [...large.omegas.map((omega) => ({ re: 0, im: omega })), { re: -0.3, im: 2 }];
+    evaluate.many!(points).forEach((result, k) => expect(result).toEqual(evaluate(points[k])));
+  });
+
+  it('a nearly defective A (a Jordan chain split by 1e-9) is not summed modally: values still match a dense solve', async () => {
+    const { schurTransferEvaluator } = await import('../../server/src/control/frequencyResponse');
+    const { solveComplexLinear } = await import('../../server/src/numeric');
+    // 30 states: a 6-long Jordan chain at −1 (eigenvalues split by 1e-9 on the diagonal, so the
+    // eigenvector matrix is ill-conditioned far beyond 1/(n·ε)), plus stable distinct modes.
+    const n = 30;
+    const A = Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => {
+      if (i < 6) return j === i ? -1 - 1e-9 * i : j === i + 1 && i < 5 ? 1 : 0;
+      return j === i ? -0.5 - i / 10 : j === i + 1 ? 0.3 : 0;
+    }));
+    const B = A.map((_, i) => [1 / (1 + i)]);
+    const C = [A.map((_, j) => Math.cos(j))];
+    const evaluate = schurTransferEvaluator(A, B, C, [[0]], undefined, 0)!;
+    for (const omega of [0.01, 0.9, 3]) {
+      const dense = solveComplexLinear(
+        { re: A.map((row) => row.map((v) => -v)), im: A.map((row, i) => row.map((_, j) => (i === j ? omega : 0))) },
+        { re: B, im: B.map(() => [0]) },
+      );
+      let re = 0;
+      let im = 0;
+      for (let k = 0; k < n; k++) {
+        re += C[0][k] * dense.X.re[k][0];
+        im += C[0][k] * dense.X.im[k][0];
+      }
+      const { value } = evaluate({ re: 0, im: omega });
+      expect(Math.hypot(value.re[0][0] - re, value.im[0][0] - im)).toBeLessThan(1e4 * n * Number.EPSILON * Math.max(1, Math.hypot(re, im)));
+    }
+    expect(evaluate.route).toBe('schur');
+  });
+});
+
 describe('plotted open-loop response of a design', () => {
   // A three-state chain with a closed form: L(s) = K(sI − A)⁻¹B for A = [0 1 0; 0 0 1; 0 −a −b],
   // B = [0; 0; 1] is (k₁ + k₂s + k₃s²)/(s³ + bs² + as) (controllable canonical form).

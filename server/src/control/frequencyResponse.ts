@@ -3,15 +3,20 @@
 // form A = Z T Zᵀ (T quasi-upper-triangular, Z orthogonal), so each frequency costs one block
 // back substitution with (λI − T): about n²·m real multiply-adds, no copy and no elimination
 // (the Schur variant of Laub's method, "Efficient multivariable frequency response
-// computations", IEEE TAC 26(2), 1981). When the QR iteration does not converge, the Hessenberg
-// form A = Q H Qᵀ and an O(n²·m) complex Hessenberg solve with partial pivoting serve instead.
+// computations", IEEE TAC 26(2), 1981). From MODAL_FROM_STATES states on, T's eigenvectors turn
+// each value into a modal sum G(λ) = D + Σ_k R_k/(λ − λ_k), n·p·m work per point, kept only where
+// its rounding estimate is small (else that point takes the back substitution). When the QR
+// iteration does not converge, the Hessenberg form A = Q H Qᵀ and an O(n²·m) complex Hessenberg
+// solve with partial pivoting serve instead.
 // Phase is unwrapped along the grid (jumps > 180° removed by ±360°), magnitude in dB.
 import type { Complex, ComplexRows, Rows } from '../numeric/types';
-import { denseFromRows, hessenbergDecomposition, realSchurDense, type RealSchurDense } from '../numeric';
+import { denseFromRows, hessenbergDecomposition, quasiTriangularModes, realSchurDense, type Dense, type RealSchurDense } from '../numeric';
 
 export type TransferEvaluator = ((point: Complex) => { value: ComplexRows; singular: boolean }) & {
   /** The same values at many points, faster where the evaluator can share work between them. */
   many?: (points: Complex[]) => { value: ComplexRows; singular: boolean }[];
+  /** How values are computed (tests and timing read it). */
+  route?: 'schur' | 'modal' | 'hessenberg';
 };
 
 /**
@@ -31,7 +36,14 @@ export function transferEvaluator(A: Rows, B: Rows, C: Rows, D: Rows, schurOfA?:
  * G(λ) = C̃ (λI − T)⁻¹ B̃ + D with A = Z T Zᵀ, B̃ = Zᵀ B, C̃ = C Z; null when the Schur form fails.
  * A Schur form of A already at hand (shared by several responses of one loop) may be passed in.
  */
-export function schurTransferEvaluator(A: Rows, B: Rows, C: Rows, D: Rows, schurOfA?: RealSchurDense): TransferEvaluator | null {
+export function schurTransferEvaluator(
+  A: Rows,
+  B: Rows,
+  C: Rows,
+  D: Rows,
+  schurOfA?: RealSchurDense,
+  modalFromStates = MODAL_FROM_STATES,
+): TransferEvaluator | null {
   const n = A.length;
   const m = D[0]?.length ?? B[0]?.length ?? 0;
   const p = C.length;
@@ -164,7 +176,159 @@ export function schurTransferEvaluator(A: Rows, B: Rows, C: Rows, D: Rows, schur
     }
     return results;
   };
-  return Object.assign(evaluate, { many });
+  const schurEvaluator: TransferEvaluator = Object.assign(evaluate, { many, route: 'schur' as const });
+  if (n < modalFromStates) return schurEvaluator;
+  return modalTransferEvaluator(schur.T, bt, ct, D, n, m, p, schurEvaluator) ?? schurEvaluator;
+}
+
+/**
+ * From this many states on, G(λ) is first tried as a modal sum (below it the back substitution
+ * is already cheap, and small models keep exactly the Schur route's values).
+ */
+export const MODAL_FROM_STATES = 24;
+
+/** A modal value is kept only when its rounding estimate is below this fraction of max|G(λ)|. */
+const MODAL_RELATIVE_ACCURACY = 1e-9;
+
+/**
+ * G(λ) = D + Σ_k R_k/(λ − λ_k) with residues R_k = (C̃V)_{:,k}·(V⁻¹B̃)_{k,:} from the modal
+ * coordinates of T (numeric/quasiTriangularModes.ts): n·p·m work per point instead of n²·m/2.
+ * Every value carries an a-posteriori rounding estimate Σ_k ε·c_k·|R_k|·(n/|λ − λ_k| +
+ * ‖T‖_F/|λ − λ_k|²), with c_k = ‖v_k‖·‖w_k‖ the condition of λ_k (w_k row k of V⁻¹): the first
+ * part covers the residue and the sum's rounding, the second the eigenvalue's own error (about
+ * ε·c_k·‖T‖, Wilkinson's first-order bound). A point whose estimate is not below
+ * MODAL_RELATIVE_ACCURACY·max|G| (cancellation among the terms, or λ beside a pole) is evaluated
+ * by the Schur route instead. Null when κ(V) = ‖V‖_F·‖V⁻¹‖_F is so large (T nearly defective)
+ * that n·ε·κ(V) alone exceeds that accuracy.
+ */
+function modalTransferEvaluator(
+  T: Dense,
+  bt: Float64Array,
+  ct: Float64Array,
+  D: Rows,
+  n: number,
+  m: number,
+  p: number,
+  schurEvaluator: TransferEvaluator,
+): TransferEvaluator | null {
+  const eps = Number.EPSILON;
+  const modes = quasiTriangularModes(T);
+  if (!(modes.condition * n * eps < MODAL_RELATIVE_ACCURACY)) return null;
+  const { vectorsRe: vr, vectorsIm: vi, inverseRe: wr, inverseIm: wi } = modes;
+  // Residues R_k (p × m per k, stored k-major) and their largest entry magnitude.
+  const residueRe = new Float64Array(n * p * m);
+  const residueIm = new Float64Array(n * p * m);
+  /** ε·c_k·max|R_k|: the weight of mode k in the rounding estimate. */
+  const residueRounding = new Float64Array(n);
+  const leftRe = new Float64Array(p);
+  const leftIm = new Float64Array(p);
+  const rightRe = new Float64Array(m);
+  const rightIm = new Float64Array(m);
+  for (let k = 0; k < n; k++) {
+    for (let i = 0; i < p; i++) {
+      let sr = 0;
+      let si = 0;
+      for (let q = 0; q <= k + 1 && q < n; q++) {
+        const c = ct[i * n + q];
+        sr += c * vr[q * n + k];
+        si += c * vi[q * n + k];
+      }
+      leftRe[i] = sr;
+      leftIm[i] = si;
+    }
+    let rowNormSquared = 0;
+    for (let q = Math.max(0, k - 1); q < n; q++) rowNormSquared += wr[k * n + q] ** 2 + wi[k * n + q] ** 2;
+    for (let j = 0; j < m; j++) {
+      let sr = 0;
+      let si = 0;
+      for (let q = Math.max(0, k - 1); q < n; q++) {
+        const b = bt[q * m + j];
+        sr += wr[k * n + q] * b;
+        si += wi[k * n + q] * b;
+      }
+      rightRe[j] = sr;
+      rightIm[j] = si;
+    }
+    let size = 0;
+    for (let i = 0; i < p; i++) {
+      for (let j = 0; j < m; j++) {
+        const e = (k * p + i) * m + j;
+        residueRe[e] = leftRe[i] * rightRe[j] - leftIm[i] * rightIm[j];
+        residueIm[e] = leftRe[i] * rightIm[j] + leftIm[i] * rightRe[j];
+        size = Math.max(size, Math.hypot(residueRe[e], residueIm[e]));
+      }
+    }
+    // c_k = ‖v_k‖·‖w_k‖ with ‖v_k‖ = 1.
+    residueRounding[k] = eps * Math.sqrt(rowNormSquared) * size;
+  }
+  if (!residueRe.every(Number.isFinite) || !residueIm.every(Number.isFinite)) return null;
+  const values = modes.values;
+  let normT = 0;
+  for (let e = 0; e < n * n; e++) normT += T.data[e] * T.data[e];
+  normT = Math.sqrt(normT);
+  const sumRe = new Float64Array(p * m);
+  const sumIm = new Float64Array(p * m);
+  /** The modal value at λ, or null when its rounding estimate is too large. */
+  const modal = (point: Complex): ComplexRows | null => {
+    for (let e = 0; e < p * m; e++) {
+      sumRe[e] = 0;
+      sumIm[e] = 0;
+    }
+    let firstOrder = 0;
+    let secondOrder = 0;
+    for (let k = 0; k < n; k++) {
+      const dr = point.re - values[k].re;
+      const di = point.im - values[k].im;
+      const d2 = dr * dr + di * di;
+      if (!(d2 > 0)) return null;
+      const ir = dr / d2;
+      const ii = -di / d2;
+      const base = k * p * m;
+      for (let e = 0; e < p * m; e++) {
+        const rr = residueRe[base + e];
+        const ri = residueIm[base + e];
+        sumRe[e] += rr * ir - ri * ii;
+        sumIm[e] += rr * ii + ri * ir;
+      }
+      const weight = residueRounding[k] / Math.sqrt(d2);
+      firstOrder += weight;
+      secondOrder += weight / Math.sqrt(d2);
+    }
+    const re: Rows = [];
+    const im: Rows = [];
+    let largest = 0;
+    for (let i = 0; i < p; i++) {
+      const rowRe = new Array<number>(m);
+      const rowIm = new Array<number>(m);
+      for (let j = 0; j < m; j++) {
+        rowRe[j] = (D[i]?.[j] ?? 0) + sumRe[i * m + j];
+        rowIm[j] = sumIm[i * m + j];
+        largest = Math.max(largest, Math.hypot(rowRe[j], rowIm[j]));
+      }
+      re.push(rowRe);
+      im.push(rowIm);
+    }
+    const estimate = n * firstOrder + normT * secondOrder;
+    return estimate < MODAL_RELATIVE_ACCURACY * largest ? { re, im } : null;
+  };
+  const evaluate = (point: Complex) => {
+    const value = modal(point);
+    return value ? { value, singular: false } : schurEvaluator(point);
+  };
+  const many = (points: Complex[]) => {
+    const results: ({ value: ComplexRows; singular: boolean } | null)[] = points.map((point) => {
+      const value = modal(point);
+      return value ? { value, singular: false } : null;
+    });
+    const rest = points.filter((_, k) => results[k] === null);
+    if (rest.length) {
+      const solved = schurEvaluator.many ? schurEvaluator.many(rest) : rest.map((point) => schurEvaluator(point));
+      let next = 0;
+      for (let k = 0; k < results.length; k++) if (results[k] === null) results[k] = solved[next++];
+    }
+    return results as { value: ComplexRows; singular: boolean }[];
+  };
+  return Object.assign(evaluate, { many, route: 'modal' as const });
 }
 
 /** Right-hand sides solved together by a TransferEvaluator's `many`. */
@@ -299,7 +463,7 @@ export function hessenbergTransferEvaluator(A: Rows, B: Rows, C: Rows, D: Rows):
       values[second * width + j] = held;
     }
   };
-  return (point: Complex) => {
+  const evaluate = (point: Complex) => {
     // M = λI − H (upper Hessenberg: only the entries from the subdiagonal on are touched), X = B̃.
     for (let i = 0; i < n; i++) {
       const from = i === 0 ? 0 : i - 1;
@@ -367,6 +531,7 @@ export function hessenbergTransferEvaluator(A: Rows, B: Rows, C: Rows, D: Rows):
     }
     return { value: outputCombination(ct, xr, xi, D, n, m, p), singular };
   };
+  return Object.assign(evaluate, { route: 'hessenberg' as const });
 }
 
 export interface FrequencyChannel {

@@ -117,7 +117,7 @@ function solveComplex2x2(
  * Right eigenvector of the quasi-triangular t for the block at k (size 1, or size 2 for the pair
  * whose member with positive imaginary part is lambda), as real and imaginary parts of length n.
  */
-function quasiTriangularEigenvector(t: Float64Array, n: number, k: number, size: number, lambda: Complex): [Float64Array, Float64Array] {
+export function quasiTriangularEigenvector(t: Float64Array, n: number, k: number, size: number, lambda: Complex): [Float64Array, Float64Array] {
   const yr = new Float64Array(n);
   const yi = new Float64Array(n);
   const minimumPivot = Math.max(EPS * (Math.abs(lambda.re) + Math.abs(lambda.im)), SAFE_MIN * (n / EPS));

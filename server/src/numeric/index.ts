@@ -10,6 +10,7 @@ export * from './schur';
 export * from './schurReorder';
 export * from './balance';
 export * from './eigenvectors';
+export * from './quasiTriangularModes';
 export * from './qr';
 export * from './svd';
 export * from './rank';
