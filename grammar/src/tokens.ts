@@ -141,6 +141,9 @@ export const PlainNumberMatrix = createToken({
   name: 'PlainNumberMatrix',
   pattern: {
     exec: (text: string, offset: number): CustomPatternMatcherReturn | null => {
+      // The lexer also tries this pattern at any offset while it skips bad characters (its error
+      // recovery ignores start_chars_hint): only a `[` starts a matrix.
+      if (text.charCodeAt(offset) !== 91 /* [ */) return null;
       const scan = scanPlainMatrix(text, offset, foldThresholdNow());
       if (!scan) return null;
       const match = [text.slice(offset, scan.end)] as CustomPatternMatcherReturn;

@@ -65,6 +65,16 @@ describe('folding of plain-number matrices', () => {
     );
   });
 
+  it('merges adjacent bad characters as the grammar does, also where a plain matrix could follow (fast-check counterexample)', () => {
+    // The lexer's error recovery tries the folded-matrix pattern at each skipped character; it
+    // must not start a matrix at the second `.` of `..` (only a `[` does).
+    const row = (i: number) => Array.from({ length: 9 }, (_, j) => (i === j ? '-2.5e-1' : '0')).join(', ');
+    const text = `0plant edited {\n  A = [${row(0)};\n       ${row(1).replace(', -2.5e-1', ',.. -2.5e-1')};\n       ${row(2)}]\n}\n`;
+    const folded = parsePlantText(text, { foldMinEntries: 1 });
+    expect(folded).toEqual(parsePlantText(text, { foldMinEntries: Number.POSITIVE_INFINITY }));
+    expect(folded.diagnostics.filter((d) => d.code === 'syntax/bad-character').map((d) => d.message)).toEqual(['unexpected characters `..`']);
+  });
+
   it('reads every number literal as JavaScript does (reference: ECMAScript Number(string))', () => {
     const digits = fc.string({ unit: fc.constantFrom(...'0123456789'), minLength: 1, maxLength: 22 });
     const literal = fc
