@@ -33,7 +33,41 @@ describe('exact linear step response', () => {
       });
       // Prescaler designed for unit DC gain: the exact final value is the set-point.
       expect(result.experiments[0].linear.metrics.steadyStateError).toBeCloseTo(0, 10);
+      // The random loops are far from defective: the large ones are summed modally.
+      if (section === 'stepResponseLarge') expect(result.methods.linear).toContain('modal');
     }
+  });
+
+  it('a defective 30-state loop (one Jordan chain) is stepped, not summed modally, and matches the closed form', () => {
+    // x_i' = −x_i + x_{i+1}, u drives x_30, y = x_1: Y/U = 1/(s + 1)^30, whose unit step response
+    // is the Erlang distribution function 1 − e^{−t}·Σ_{k<30} t^k/k! (closed form).
+    const n = 30;
+    const A = Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => (j === i ? -1 : j === i + 1 ? 1 : 0)));
+    const result = simulateStepResponses({
+      domain: 'continuous',
+      A,
+      B: A.map((_, i) => [i === n - 1 ? 1 : 0]),
+      C: [A.map((_, j) => (j === 0 ? 1 : 0))],
+      D: [[0]],
+      K: [new Array(n).fill(0)],
+      prescaler: [[1]],
+      tracked: [0],
+      points: 801,
+      duration: 80,
+      maxReturnedPoints: 801,
+    });
+    expect(result.methods.linear).toBe('exact zero-order-hold transition of the closed loop');
+    const { time, outputs } = result.experiments[0].linear;
+    time.forEach((t, k) => {
+      let term = 1;
+      let sum = 1;
+      for (let j = 1; j < n; j++) {
+        term *= t / j;
+        sum += term;
+      }
+      const erlang = 1 - Math.exp(-t) * sum;
+      expect(Math.abs(outputs[0][k] - erlang)).toBeLessThan(1e-9);
+    });
   });
 
   it('runs a discrete loop by its recursion: x[k+1] = 0.5x + u, u = r gives y[k] = 2(1 − 0.5^k)', () => {

@@ -9,7 +9,9 @@
 //    discretised by the zero-order hold on the grid step h (r is constant, so the hold is exact):
 //    z[k+1] = e^{Acl h} z[k] + ∫₀ʰ e^{Acl τ}dτ Bcl r (Van Loan block exponential). Discrete
 //    designs run their own recursion at T. Loops of 24 states or more form only u and y, by
-//    blocks of 16 steps (numeric/linearRecursion.ts).
+//    blocks of 16 steps (numeric/linearRecursion.ts); continuous ones first as modal sums on the
+//    closed loop's Schur form (numeric/modalStepOutputs.ts, the same samples, n instead of n²
+//    work per step), kept where their rounding estimate is below 1e-9 of each signal.
 //  • Saturated (actuator limits, u clipped to [low, high]): the loop is nonlinear; continuous
 //    designs are integrated by the classical fourth-order Runge–Kutta method with the same fixed
 //    step h (the saturation is evaluated at every stage); discrete designs are exact.
@@ -28,7 +30,7 @@
 // downsampled to at most `maxReturnedPoints` (default 500); metrics use the full grid.
 import type { Complex, Rows } from '../numeric/types';
 import type { NonlinearModel } from '../model/types';
-import { eigenvalues, matrixExponentialIntegral, outputsOfLinearRecursion, solveLinear } from '../numeric';
+import { denseFromRows, eigenvalues, matrixExponentialIntegral, modalStepOutputs, outputsOfLinearRecursion, realSchurDense, solveLinear, type RealSchurDense } from '../numeric';
 import { computeStepMetrics, type InputLimit, type StepMetrics } from './stepMetrics';
 
 export interface StepResponseProblem {
@@ -304,6 +306,11 @@ function recurseLinear(transitionFlat: Float64Array, forcing: Float64Array, size
 /** Steps per block of the linear recursion by blocks, and the smallest loop it is used for. */
 const BLOCK_STEPS = 16;
 const BLOCK_MIN_STATES = 24;
+/** A modal step response is kept only when its rounding estimate is below this fraction of each signal's size. */
+const MODAL_STEP_ACCURACY = 1e-9;
+const TRANSITION_METHOD = 'exact zero-order-hold transition of the closed loop';
+const MODAL_METHOD = "exact modal sum on the closed loop's Schur form";
+const DISCRETE_METHOD = 'exact discrete recursion';
 
 interface RawRun {
   z: ArrayLike<number>[]; // per time
@@ -367,30 +374,49 @@ export function simulateStepResponses(problem: StepResponseProblem): StepRespons
     return fromState.map((v, i) => v + fromReference[i]);
   };
 
-  // Exact transition for the linear run.
-  const transition = domain === 'continuous' ? matrixExponentialIntegral(loop.Acl, loop.Bcl, h) : { Phi: loop.Acl, Gamma: loop.Bcl };
-
-  // The recursion on one flat row-major Φ and one flat state record (views per time step):
-  // n² multiply-adds per step with no per-step allocation, the hot loop of the whole analysis.
-  const transitionFlat = new Float64Array(size * size);
-  transition.Phi.forEach((row, i) => transitionFlat.set(row, i * size));
+  // Exact transition for the linear run (formed when a run steps the state).
+  let transitionMemo: { Phi: Rows; Gamma: Rows; flat: Float64Array } | null = null;
+  const transition = () => {
+    if (!transitionMemo) {
+      const exact = domain === 'continuous' ? matrixExponentialIntegral(loop.Acl, loop.Bcl, h) : { Phi: loop.Acl, Gamma: loop.Bcl };
+      // The recursion on one flat row-major Φ and one flat state record (views per time step):
+      // n² multiply-adds per step with no per-step allocation.
+      const flat = new Float64Array(size * size);
+      exact.Phi.forEach((row, i) => flat.set(row, i * size));
+      transitionMemo = { Phi: exact.Phi, Gamma: exact.Gamma, flat };
+    }
+    return transitionMemo;
+  };
   const commandFlat = loop.Fz.map((row) => Float64Array.from(row));
-  // Larger loops go by blocks of BLOCK_STEPS steps and only the input and output rows are formed
-  // (numeric/linearRecursion.ts): about a quarter of the work at 100 states. The states themselves
-  // are stepped one by one when they are asked for, and for small loops, where that is cheap.
+  // Larger loops form only the input and output rows: continuous ones as modal sums on the closed
+  // loop's Schur form (numeric/modalStepOutputs.ts) where their rounding estimate allows, else by
+  // blocks of BLOCK_STEPS steps (numeric/linearRecursion.ts), about a quarter of the work of
+  // stepping the state at 100 states. The states themselves are stepped one by one when they are
+  // asked for, and for small loops, where that is cheap.
   const byBlocks = !problem.includeStates && size >= BLOCK_MIN_STATES && grid.count >= 4 * BLOCK_STEPS;
+  let closedLoopSchur: RealSchurDense | null | undefined;
+  const modalSchur = () => {
+    if (closedLoopSchur === undefined) {
+      const schur = realSchurDense(denseFromRows(loop.Acl));
+      closedLoopSchur = schur.converged ? schur : null;
+    }
+    return closedLoopSchur;
+  };
   const signalRows = new Float64Array((m + p) * size);
   commandFlat.forEach((row, i) => signalRows.set(row, i * size));
   C.forEach((row, i) => signalRows.set(row, (m + i) * size));
+  const linearMethods = new Set<string>();
   const runLinear = (r: number[]): RawRun => {
     const count = grid.count;
-    const forcing = Float64Array.from(matVec(transition.Gamma, r));
     const fromReference = matVec(loop.Fr, r);
     const u: number[][] = new Array(count);
     const y: number[][] = new Array(count);
     if (byBlocks) {
       const rows = m + p;
-      const signals = outputsOfLinearRecursion(transitionFlat, forcing, size, count, signalRows, rows, BLOCK_STEPS);
+      const schur = domain === 'continuous' ? modalSchur() : null;
+      const modal = schur ? modalStepOutputs(schur.T, schur.Z, Float64Array.from(matVec(loop.Bcl, r)), signalRows, rows, h, count, MODAL_STEP_ACCURACY) : null;
+      linearMethods.add(modal ? MODAL_METHOD : domain === 'continuous' ? TRANSITION_METHOD : DISCRETE_METHOD);
+      const signals = modal ?? outputsOfLinearRecursion(transition().flat, Float64Array.from(matVec(transition().Gamma, r)), size, count, signalRows, rows, BLOCK_STEPS);
       for (let k = 0; k < count; k++) {
         const base = k * rows;
         const command = new Array<number>(m);
@@ -406,7 +432,8 @@ export function simulateStepResponses(problem: StepResponseProblem): StepRespons
       }
       return { z: [], u, y, divergedAt: null, time };
     }
-    const states = recurseLinear(transitionFlat, forcing, size, count);
+    linearMethods.add(domain === 'continuous' ? TRANSITION_METHOD : DISCRETE_METHOD);
+    const states = recurseLinear(transition().flat, Float64Array.from(matVec(transition().Gamma, r)), size, count);
     // Per-step views of the state only when the states are returned (2,000 views otherwise unused).
     const z = problem.includeStates ? Array.from({ length: count }, (_, k) => states.subarray(k * size, (k + 1) * size)) : [];
     // u_k = Fz·z_k + Fr·r and y_k = C·x_k + D·u_k on the flat record, in the same summation order
@@ -658,7 +685,7 @@ export function simulateStepResponses(problem: StepResponseProblem): StepRespons
     step: h,
     truncated: grid.truncated,
     methods: {
-      linear: domain === 'continuous' ? 'exact zero-order-hold transition of the closed loop' : 'exact discrete recursion',
+      linear: linearMethods.size ? [...linearMethods].join('; ') : domain === 'continuous' ? TRANSITION_METHOD : DISCRETE_METHOD,
       saturated: domain === 'continuous' ? 'fixed-step fourth-order Runge-Kutta on the same grid' : 'exact discrete recursion with clipped inputs',
       nonlinear:
         domain === 'continuous'

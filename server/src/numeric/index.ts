@@ -11,6 +11,7 @@ export * from './schurReorder';
 export * from './balance';
 export * from './eigenvectors';
 export * from './quasiTriangularModes';
+export * from './modalStepOutputs';
 export * from './qr';
 export * from './svd';
 export * from './rank';
