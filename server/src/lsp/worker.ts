@@ -7,7 +7,7 @@ import { type MessagePort, parentPort, workerData } from 'node:worker_threads';
 import { helperForJob, serveAsHelper } from './analysisHelper';
 import { usesHelper } from '../analyze';
 import { numberFromEnvironment } from './settings';
-import { traceMark } from './trace';
+import { traceGarbageCollection, traceMark } from './trace';
 import { cloneable, runSlowAnalysis, type AnalysisJob, type AnalysisReply } from './slowAnalysis';
 
 /** First message from the server when a helper thread is running beside this worker. */
@@ -20,6 +20,7 @@ export interface HelperLinkMessage {
 const log = (message: string) => parentPort?.postMessage({ kind: 'log', message });
 
 if ((workerData as { role?: string } | null)?.role === 'helper') {
+  traceGarbageCollection('helper');
   // One link at a time: each new analysis worker gets a fresh one (the previous one is closed).
   let unlink: (() => void) | null = null;
   parentPort?.on('message', (link: HelperLinkMessage) => {
@@ -27,6 +28,7 @@ if ((workerData as { role?: string } | null)?.role === 'helper') {
     unlink = serveAsHelper(link.port, new Int32Array(link.cells), log);
   });
 } else {
+  traceGarbageCollection('coordinator');
   let helper: { port: MessagePort; cells: Int32Array } | null = null;
   // LOOPWRIGHT_HELPER_FROM_STATES overrides the size from which the helper is used (tests use 0).
   const helperFromStates = numberFromEnvironment('LOOPWRIGHT_HELPER_FROM_STATES');
