@@ -53,6 +53,23 @@ describe('parameters', () => {
     expect(plant.A[0]![0]).toBeCloseTo(-6.6, 14);
   });
 
+  it('re-checking the same syntax tree with moved parameters (number-literal entries copied) equals checking the edited text', async () => {
+    const { parsePlantText } = await import('../../grammar/src');
+    const { checkPlant } = await import('../../server/src/model/check');
+    const source = (k: string) =>
+      `plant m {\n  param k = ${k}\n  param h = 0.05\n  states a, b, c\n  inputs u\n  A = [-k - h, k, 0; k, -2*k, k; 0, k, -k - h]\n  B = [1; 0; -0]\n}\n`;
+    const declaration = parsePlantText(source('0.5')).document.declarations[0] as never;
+    const first = checkPlant(declaration, []).checked;
+    for (const k of [0.55, 0.45, 0.55]) {
+      const moved = checkPlant(declaration, [], { k }).checked;
+      const edited = checkPlant(parsePlantText(source(String(k))).document.declarations[0] as never, []).checked;
+      expect(moved.A).toEqual(edited.A);
+      expect(moved.B).toEqual(edited.B);
+      expect(Object.is(moved.B[2][0], -0)).toBe(true);
+    }
+    expect(checkPlant(declaration, []).checked.A).toEqual(first.A);
+  });
+
   it('keeps matrix-valued parameters usable in matrices but out of the scalar list', () => {
     const doc = check('plant m {\n  param M = diag(-1, -2)\n  param g = 3\n  states a, b\n  inputs u\n  A = M\n  B = [0; g]\n  C = identity(2)\n  D = zeros(2, 1)\n}\n');
     expect(problems(doc)).toEqual([]);

@@ -22,7 +22,7 @@ export function evaluateSourcedMatrix(expr: Expr, scope: ValueScope, out: Diagno
   if (expr.kind === 'matrix' && expr.plain) return plainSourcedMatrix(expr, expr.plain);
   if (expr.kind === 'matrix') {
     const rows = expr.rows.filter((row) => row.entries.length > 0);
-    const values = rows.map((row) => row.entries.map((entry) => realEntry(entry, scope, out)));
+    const values = literalEntries(expr, rows, scope, out);
     // Ranges only when a diagnostic or a hover asks for them: a plant is re-checked many times
     // over (fragility study) and a 100-state A has 10,000 entries.
     const source = { range: expr.range } as MatrixSource;
@@ -52,6 +52,44 @@ export function evaluateSourcedMatrix(expr: Expr, scope: ValueScope, out: Diagno
   defineLazyProperty(source, 'rowRanges', () => rows.map(() => expr.range));
   defineLazyProperty(source, 'entryRanges', () => rows.map((row) => row.map(() => expr.range)));
   return { rows, literal: false, source };
+}
+
+/**
+ * The entries of a matrix literal. The number literals among them (most entries of a large
+ * model: zeros and constants) do not depend on the scope, so after a first evaluation of the same
+ * syntax tree they are copied instead of evaluated again, and only the other entries are: a
+ * plant re-checked with moved parameters (the fragility study) costs its parameter-dependent
+ * entries only. Same values either way (a number literal evaluates to itself).
+ */
+function literalEntries(expr: MatrixExpr, rows: MatrixExpr['rows'], scope: ValueScope, out: Diagnostic[]): (number | null)[][] {
+  const remembered = literalConstants.get(expr);
+  if (remembered) {
+    const values = remembered.rows.map((row) => row.slice());
+    for (const [i, j] of remembered.dependent) values[i][j] = realEntry(rows[i].entries[j], scope, out);
+    return values;
+  }
+  const dependent: [number, number][] = [];
+  const reportedBefore = out.length;
+  const values = rows.map((row, i) =>
+    row.entries.map((entry, j) => {
+      if (!isNumberLiteral(entry)) dependent.push([i, j]);
+      return realEntry(entry, scope, out);
+    }),
+  );
+  // Remembered only when nothing was reported: a cached copy must not skip a diagnostic.
+  if (out.length === reportedBefore) {
+    literalConstants.set(expr, { rows: values.map((row, i) => row.map((value, j) => (isNumberLiteral(rows[i].entries[j]) ? value : null))), dependent });
+  }
+  return values;
+}
+
+/** Per matrix literal (its syntax node, so a new parse starts afresh): the number-literal entries and where the others are. */
+const literalConstants = new WeakMap<MatrixExpr, { rows: (number | null)[][]; dependent: [number, number][] }>();
+
+/** A real number written out (optionally signed): its value never depends on parameters. */
+function isNumberLiteral(entry: Expr): boolean {
+  const node = entry.kind === 'unary' ? entry.operand : entry;
+  return node.kind === 'number' && !node.unit && !node.imaginary;
 }
 
 /**
