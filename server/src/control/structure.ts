@@ -52,12 +52,13 @@ export function controllabilityStaircase(A: Rows, B: Rows, tolerance = structure
   // and columns only, so the whole reduction costs O(n³) rather than O(n⁴).
   const Ab = new Float64Array(n * n);
   const Bb = new Float64Array(n * m);
-  const T = new Float64Array(n * n);
   for (let i = 0; i < n; i++) {
     for (let j = 0; j < n; j++) Ab[i * n + j] = A[i][j];
     for (let j = 0; j < m; j++) Bb[i * m + j] = B[i][j];
-    T[i * n + i] = 1;
   }
+  // The reflectors in order: T = H₁·H₂⋯ is formed only when a caller reads it (the plant report
+  // never does), by the same products the reduction would have applied to it step by step.
+  const reflectors: { v: Float64Array; beta: number; start: number }[] = [];
   const columnSums = new Float64Array(n);
   const applyReflector = (v: Float64Array, beta: number, start: number) => {
     // Left on Ā and B̄ (rows start…n−1), right on Ā and T (columns start…n−1). The left product
@@ -81,16 +82,11 @@ export function controllabilityStaircase(A: Rows, B: Rows, tolerance = structure
     }
     for (let i = 0; i < n; i++) {
       let dotA = 0;
-      let dotT = 0;
-      for (let j = start; j < n; j++) {
-        dotA += Ab[i * n + j] * v[j - start];
-        dotT += T[i * n + j] * v[j - start];
-      }
+      for (let j = start; j < n; j++) dotA += Ab[i * n + j] * v[j - start];
       const fA = beta * dotA;
-      const fT = beta * dotT;
       if (fA !== 0) for (let j = start; j < n; j++) Ab[i * n + j] -= fA * v[j - start];
-      if (fT !== 0) for (let j = start; j < n; j++) T[i * n + j] -= fT * v[j - start];
     }
+    reflectors.push({ v, beta, start });
   };
   const blockSizes: number[] = [];
   let offset = 0;
@@ -150,7 +146,31 @@ export function controllabilityStaircase(A: Rows, B: Rows, tolerance = structure
   for (let i = offset; i < n; i++) for (let j = 0; j < offset; j++) Ab[i * n + j] = 0;
   const toRows = (data: Float64Array, cols: number): Rows =>
     Array.from({ length: n }, (_, i) => Array.from(data.subarray(i * cols, (i + 1) * cols)));
-  return { T: toRows(T, n), Abar: toRows(Ab, n), Bbar: toRows(Bb, m), controllableDimension: offset, blockSizes, rankTolerance: tolerance };
+  let transform: Rows | null = null;
+  const formTransform = (): Rows => {
+    const T = new Float64Array(n * n);
+    for (let i = 0; i < n; i++) T[i * n + i] = 1;
+    for (const { v, beta, start } of reflectors) {
+      for (let i = 0; i < n; i++) {
+        let dot = 0;
+        for (let j = start; j < n; j++) dot += T[i * n + j] * v[j - start];
+        const f = beta * dot;
+        if (f !== 0) for (let j = start; j < n; j++) T[i * n + j] -= f * v[j - start];
+      }
+    }
+    return toRows(T, n);
+  };
+  return {
+    get T(): Rows {
+      transform ??= formTransform();
+      return transform;
+    },
+    Abar: toRows(Ab, n),
+    Bbar: toRows(Bb, m),
+    controllableDimension: offset,
+    blockSizes,
+    rankTolerance: tolerance,
+  };
 }
 
 export interface UncontrollableMode {
