@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { denseFromRows, multiply, norm1, subtract, identity, normFrobenius, hstack, vstack, blockDiagonal, transpose } from '../../server/src/numeric/dense';
-import { determinant, inverse, luFactor, solveComplexLinear, solveLinear } from '../../server/src/numeric/lu';
+import { determinant, inverse, luFactor, luSolveTransposeVector, solveComplexLinear, solveLinear } from '../../server/src/numeric/lu';
 import { seededMatrix } from './coreTestMatrices';
 
 const EPS = Number.EPSILON;
@@ -85,5 +85,28 @@ describe('LU with partial pivoting', () => {
     }
     const sing = solveComplexLinear({ re: [[1, 1], [1, 1]], im: [[1, 1], [1, 1]] }, { re: [[1], [0]], im: [[0], [0]] });
     expect(sing.singular).toBe(true);
+  });
+});
+
+describe('transposed solve from an LU factorisation', () => {
+  it('solves Aᵀx = b with a residual at rounding level (n = 40, random A with row exchanges)', () => {
+    const n = 40;
+    const A = seededMatrix(n, n, 4040);
+    const b = Float64Array.from({ length: n }, (_, i) => Math.sin(i + 1));
+    const factor = luFactor(denseFromRows(A));
+    expect(Array.from(factor.permutation).some((p, i) => p !== i)).toBe(true);
+    const x = luSolveTransposeVector(factor, b);
+    let residual = 0;
+    let scale = 0;
+    for (let j = 0; j < n; j++) {
+      let sum = -b[j];
+      for (let i = 0; i < n; i++) sum += A[i][j] * x[i];
+      residual = Math.max(residual, Math.abs(sum));
+      scale = Math.max(scale, Math.abs(b[j]));
+    }
+    const normA = A.reduce((largest, row) => Math.max(largest, row.reduce((sum, v) => sum + Math.abs(v), 0)), 0);
+    const normX = x.reduce((sum, v) => sum + Math.abs(v), 0);
+    // Backward stable: ‖Aᵀx − b‖ ≤ c·n·ε·‖A‖·‖x‖ (common practice for the constant).
+    expect(residual).toBeLessThan(10 * n * EPS * normA * normX);
   });
 });

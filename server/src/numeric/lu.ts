@@ -112,17 +112,20 @@ export function luSolveDense(factor: LuFactorization, rhs: Dense): Dense {
 export function luSolveTransposeVector(factor: LuFactorization, rhs: Float64Array): Float64Array {
   const n = factor.lu.rows;
   const lu = factor.lu.data;
-  // Aᵀ = Uᵀ Lᵀ P, so solve Uᵀ w = b, Lᵀ v = w, x = Pᵀ v.
+  // Aᵀ = Uᵀ Lᵀ P, so solve Uᵀ w = b, Lᵀ v = w, x = Pᵀ v. Both by rows of the factors (each solved
+  // entry updates the later ones, column-oriented substitution on Uᵀ and Lᵀ): the stored rows are
+  // read contiguously instead of down columns.
   const w = rhs.slice();
-  for (let i = 0; i < n; i++) {
-    let sum = w[i];
-    for (let k = 0; k < i; k++) sum -= lu[k * n + i] * w[k];
-    w[i] = sum / lu[i * n + i];
+  for (let k = 0; k < n; k++) {
+    const value = w[k] / lu[k * n + k];
+    w[k] = value;
+    if (value === 0) continue;
+    for (let i = k + 1; i < n; i++) w[i] -= lu[k * n + i] * value;
   }
-  for (let i = n - 1; i >= 0; i--) {
-    let sum = w[i];
-    for (let k = i + 1; k < n; k++) sum -= lu[k * n + i] * w[k];
-    w[i] = sum;
+  for (let k = n - 1; k > 0; k--) {
+    const value = w[k];
+    if (value === 0) continue;
+    for (let i = 0; i < k; i++) w[i] -= lu[k * n + i] * value;
   }
   const x = new Float64Array(n);
   for (let i = 0; i < n; i++) x[factor.permutation[i]] = w[i];
