@@ -17,10 +17,17 @@ export interface LyapunovCertificate {
   X: Dense;
   normX: number;
   /**
-   * A reference loop A₀ (the nominal one) with X·A₀ formed once: a loop that differs from it in a
-   * few entries (one parameter moved) then costs X·A₀ + X·Δ over Δ's nonzeros only.
+   * A reference loop A₀ (the nominal one) with X·A₀ + (X·A₀)ᵀ formed once: a loop that differs
+   * from it in a few entries (one parameter moved) then costs X·Δ over Δ's nonzeros only.
    */
-  reference?: { A: Dense; XA: Dense; normA: number };
+  reference?: {
+    A: Dense;
+    normA: number;
+    /** Xᵀ (rows of Xᵀ are the columns of X, read contiguously). */
+    Xt: Float64Array;
+    /** X·A₀ + (X·A₀)ᵀ, lower triangle. */
+    symmetricPart: Float64Array;
+  };
 }
 
 function roundingMargin(n: number): number {
@@ -35,13 +42,20 @@ export function lyapunovCertificate(X: Rows, referenceLoop?: Rows): LyapunovCert
   const n = X.length;
   if (n === 0 || X.some((row) => row.length !== n)) return null;
   const dense = denseFromRows(X);
-  if (!dense.data.every(Number.isFinite)) return null;
+  if (!allFinite(dense.data)) return null;
   const normX = normFrobeniusDense(dense);
   if (!isPositiveDefiniteShifted(dense.data, n, roundingMargin(n) * normX)) return null;
   const certificate: LyapunovCertificate = { X: dense, normX };
   if (referenceLoop && referenceLoop.length === n && referenceLoop.every((row) => row.length === n)) {
     const A = denseFromRows(referenceLoop);
-    if (A.data.every(Number.isFinite)) certificate.reference = { A, XA: multiplyDense(dense, A), normA: normFrobeniusDense(A) };
+    if (allFinite(A.data)) {
+      const XA = multiplyDense(dense, A).data;
+      const symmetricPart = new Float64Array(n * n);
+      for (let i = 0; i < n; i++) for (let j = 0; j <= i; j++) symmetricPart[i * n + j] = XA[i * n + j] + XA[j * n + i];
+      const Xt = new Float64Array(n * n);
+      for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) Xt[j * n + i] = dense.data[i * n + j];
+      certificate.reference = { A, normA: normFrobeniusDense(A), Xt, symmetricPart };
+    }
   }
   return certificate;
 }
@@ -60,25 +74,36 @@ function sparseDifference(a: Float64Array, reference: Float64Array, n: number, l
   return difference;
 }
 
-/** X·A, from the reference product when A differs from the reference loop in few entries. */
-function productWithX(certificate: LyapunovCertificate, a: Dense): { XA: Dense; roundingScale: number } {
+/**
+ * −(AᵀX + XA) into `decrease` (lower triangle) for a loop A that differs from the reference loop
+ * in few entries: with U = (X·Δ)ᵀ, whose row j gains Δ(i, j)·(row i of Xᵀ) per nonzero of Δ
+ * (n multiply–adds each, contiguous), XA(i, j) = XA₀(i, j) + U(j, i). Returns the scale of the
+ * rounding, ‖X‖(‖A₀‖ + ‖Δ‖) ≥ ‖X‖‖A‖; null when Δ has too many nonzeros.
+ */
+function decreaseFromReference(certificate: LyapunovCertificate, a: Dense, decrease: Float64Array): number | null {
   const n = a.rows;
   const reference = certificate.reference;
   const difference = reference ? sparseDifference(a.data, reference.A.data, n, (n * n) >> 3) : null;
-  if (!reference || !difference) return { XA: multiplyDense(certificate.X, a), roundingScale: certificate.normX * normFrobeniusDense(a) };
-  // X·A = X·A₀ + Σ Δ(i, j)·X(:, i) e_jᵀ: n multiply–adds per nonzero of Δ.
-  const XA = { rows: n, cols: n, data: reference.XA.data.slice() };
-  const x = certificate.X.data;
+  if (!reference || !difference) return null;
+  const update = new Float64Array(n * n);
+  const xt = reference.Xt;
   let normDifference = 0;
   for (let k = 0; k < difference.values.length; k++) {
-    const i = difference.rows[k];
-    const j = difference.columns[k];
+    const from = difference.rows[k] * n;
+    const to = difference.columns[k] * n;
     const value = difference.values[k];
     normDifference += value * value;
-    for (let r = 0; r < n; r++) XA.data[r * n + j] += x[r * n + i] * value;
+    for (let r = 0; r < n; r++) update[to + r] += xt[from + r] * value;
   }
-  // Rounding of X·A₀ and of X·Δ and their sum: scaled by ‖X‖(‖A₀‖ + ‖Δ‖) ≥ ‖X‖‖A‖.
-  return { XA, roundingScale: certificate.normX * (reference.normA + Math.sqrt(normDifference)) };
+  const symmetricPart = reference.symmetricPart;
+  for (let i = 0; i < n; i++) for (let j = 0; j <= i; j++) decrease[i * n + j] = -(symmetricPart[i * n + j] + update[j * n + i] + update[i * n + j]);
+  return certificate.normX * (reference.normA + Math.sqrt(normDifference));
+}
+
+/** True when every entry is a finite number. */
+function allFinite(values: Float64Array): boolean {
+  for (let k = 0; k < values.length; k++) if (!Number.isFinite(values[k])) return false;
+  return true;
 }
 
 /**
@@ -89,14 +114,17 @@ export function certifiesStability(certificate: LyapunovCertificate, A: Rows, do
   const n = certificate.X.rows;
   if (A.length !== n || A.some((row) => row.length !== n)) return false;
   const a = denseFromRows(A);
-  if (!a.data.every(Number.isFinite)) return false;
+  if (!allFinite(a.data)) return false;
   const decrease = new Float64Array(n * n); // −(AᵀX + XA), or X − AᵀXA
   let roundingScale: number;
   if (domain === 'continuous') {
-    const product = productWithX(certificate, a);
-    const XA = product.XA;
-    for (let i = 0; i < n; i++) for (let j = 0; j <= i; j++) decrease[i * n + j] = -(XA.data[i * n + j] + XA.data[j * n + i]);
-    roundingScale = product.roundingScale;
+    const fromReference = decreaseFromReference(certificate, a, decrease);
+    if (fromReference !== null) roundingScale = fromReference;
+    else {
+      const XA = multiplyDense(certificate.X, a).data;
+      for (let i = 0; i < n; i++) for (let j = 0; j <= i; j++) decrease[i * n + j] = -(XA[i * n + j] + XA[j * n + i]);
+      roundingScale = certificate.normX * normFrobeniusDense(a);
+    }
   } else {
     const normA = normFrobeniusDense(a);
     // AᵀXA is symmetric: one triangle of the last product (exactly symmetric, no averaging needed).
