@@ -291,8 +291,15 @@ async function printTimeline(n, edits) {
   marks.sort((a, b) => a.time - b.time);
   const jobs = [];
   for (const mark of marks) {
-    if (mark.label === 'coordinator: job start') jobs.push({ start: mark.time, offsets: new Map() });
-    else if (jobs.length && !jobs[jobs.length - 1].offsets.has(mark.label)) jobs[jobs.length - 1].offsets.set(mark.label, mark.time - jobs[jobs.length - 1].start);
+    if (mark.label === 'coordinator: job start') jobs.push({ start: mark.time, offsets: new Map(), collections: new Map() });
+    else if (!jobs.length) continue;
+    else if (mark.label.includes(': gc ')) {
+      // "<thread>: gc kind <k> <ms> ms": summed per thread and job.
+      const [thread, rest] = mark.label.split(': gc ');
+      const milliseconds = Number(rest.split(' ')[2]);
+      const collections = jobs[jobs.length - 1].collections;
+      collections.set(thread, (collections.get(thread) ?? 0) + milliseconds);
+    } else if (!jobs[jobs.length - 1].offsets.has(mark.label)) jobs[jobs.length - 1].offsets.set(mark.label, mark.time - jobs[jobs.length - 1].start);
   }
   const measured = jobs.slice(1); // the first job is the didOpen
   const labels = [...new Set(measured.flatMap((job) => [...job.offsets.keys()]))];
@@ -301,6 +308,10 @@ async function printTimeline(n, edits) {
   console.log(`${n}-state model, ${measured.length} edits: median ms after the coordinator starts the job`);
   for (const [label, offset] of rows) console.log(`${ms(offset).padStart(8)}  ${label}`);
   console.log(`${ms(percentile(full, 50)).padStart(8)}  didChange → full diagnostics (client side)`);
+  for (const thread of ['coordinator', 'helper']) {
+    const totals = measured.map((job) => job.collections.get(thread) ?? 0);
+    console.log(`${ms(percentile(totals, 50)).padStart(8)}  ${thread}: garbage collection per job (median of the sum of pauses ≥ 1 ms)`);
+  }
 }
 
 async function compareWith(otherRoot, n, edits) {

@@ -11,6 +11,7 @@ import { availableParallelism } from 'node:os';
 import { setFlagsFromString } from 'node:v8';
 import { MessageChannel, Worker } from 'node:worker_threads';
 import { ANSWERS_POSTED, HELPER_BUSY, HELPER_CELLS, HELPER_GONE } from './analysisHelper';
+import { traceMark } from './trace';
 import type { AnalysisSettings } from '../control/settings';
 import type { RiccatiStart } from '../control/lqr';
 import { runSlowAnalysis, type AnalysisJob, type AnalysisReply, type SlowResult } from './slowAnalysis';
@@ -167,6 +168,7 @@ export class AnalysisRunner {
         if (reply.kind === 'log') this.log(reply.message);
         return;
       }
+      traceMark('server: analysis received');
       const pending = this.running;
       if (!pending || pending.job.job !== reply.job) return;
       this.finish(pending, 'result' in reply ? { result: reply.result } : { error: reply.error });

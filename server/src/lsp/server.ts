@@ -35,6 +35,7 @@ import { semanticTokens } from '../ide/semanticTokens';
 import { signatureHelp } from '../ide/signatureHelp';
 import { controllerReportAt, type AnalysisView } from '../ide/view';
 import { AnalysisRunner } from './analysisRunner';
+import { traceMark } from './trace';
 import {
   fromLspDiagnostic,
   semanticTokensLegend,
@@ -255,6 +256,7 @@ export function startServer(connection: Connection, options: ServerOptions = {})
   async function analyseSlow(state: DocumentState, version: number, text: string): Promise<void> {
     const uri = state.document.uri;
     const outcome = await runner.analyse(uri, version, text, settings.analysis, largestPlant(state.fast));
+    traceMark('server: analysis resumed');
     // A result for an older text is never published.
     if (documents.get(uri) !== state || state.fastVersion !== version || state.document.version !== version) return;
     if ('superseded' in outcome) return;
@@ -268,6 +270,7 @@ export function startServer(connection: Connection, options: ServerOptions = {})
       publish(state, outcome.result.diagnostics);
     }
     void connection.sendNotification(ANALYSIS_UPDATED, { uri, version });
+    traceMark('server: analysis published');
     if (capabilities.workspace?.codeLens?.refreshSupport) void connection.sendRequest(CodeLensRefreshRequest.type).catch(() => undefined);
     if (capabilities.workspace?.inlayHint?.refreshSupport) void connection.languages.inlayHint.refresh().catch(() => undefined);
   }
