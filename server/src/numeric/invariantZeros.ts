@@ -48,10 +48,17 @@ function rangeFactor(M: Dense, tolerance: number): { factor: HouseholderQrDense;
   return { factor, rank };
 }
 
-/** Rows of M in the given order. */
-function reorderRows(M: Dense, order: number[]): Dense {
-  const result = zerosDense(order.length, M.cols);
-  order.forEach((source, i) => result.data.set(M.data.subarray(source * M.cols, (source + 1) * M.cols), i * M.cols));
+/** M's entries at the given rows and columns: (M[rows[i]][columns[j]]). */
+function gather(M: Dense, rows: number[], columns: number[]): Dense {
+  const width = columns.length;
+  const result = zerosDense(rows.length, width);
+  const from = M.data;
+  const to = result.data;
+  for (let i = 0; i < rows.length; i++) {
+    const sourceRow = rows[i] * M.cols;
+    const targetRow = i * width;
+    for (let j = 0; j < width; j++) to[targetRow + j] = from[sourceRow + columns[j]];
+  }
   return result;
 }
 
@@ -126,16 +133,17 @@ function reduceToFullRowRankD(system: StateSpace, tolerance: number): StateSpace
     // WᵀAW, WᵀB and C₂W by applying the σ reflectors, O(σ·n²) instead of O(n³) per pass — a
     // single-output plant of relative degree n takes n passes.
     const stateOrder = [...Array.from({ length: keep }, (_, i) => tau + i), ...Array.from({ length: tau }, (_, i) => i)];
-    const At = reorderRows(reorderColumns(applyQTranspose(columnFactor, applyQFromRight(A, columnFactor)), stateOrder), stateOrder);
-    const Bt = reorderRows(applyQTranspose(columnFactor, B), stateOrder);
-    const C2t = reorderColumns(applyQFromRight(C2, columnFactor), stateOrder);
-    A = block(At, 0, keep, 0, keep);
-    const A21 = block(At, keep, n, 0, keep);
-    const B1 = block(Bt, 0, keep, 0, m);
-    const B2 = block(Bt, keep, n, 0, m);
-    C = stackRows(block(C2t, 0, rho, 0, keep), A21);
-    D = stackRows(Dbar, B2);
-    B = B1;
+    // The blocks of the reordered QᵀAQ, QᵀB and C₂Q are gathered straight from them (one copy each).
+    const transformedA = applyQTranspose(columnFactor, applyQFromRight(A, columnFactor));
+    const transformedB = applyQTranspose(columnFactor, B);
+    const kept = stateOrder.slice(0, keep);
+    const removed = stateOrder.slice(keep);
+    const allInputs = Array.from({ length: m }, (_, j) => j);
+    const A21 = gather(transformedA, removed, kept);
+    C = stackRows(gather(applyQFromRight(C2, columnFactor), Array.from({ length: rho }, (_, i) => i), kept), A21);
+    D = stackRows(Dbar, gather(transformedB, removed, allInputs));
+    A = gather(transformedA, kept, kept);
+    B = gather(transformedB, kept, allInputs);
   }
   return { A, B, C, D };
 }
