@@ -131,3 +131,39 @@ describe('eigenvalues and eigenvectors', () => {
   });
 });
 
+
+describe('eigenvalues with the balanced Schur form kept', () => {
+  it('gives exactly the eigenvalues of eigenvaluesWithStatus, and D⁻¹AD = Z·T·Zᵀ with Z orthogonal', async () => {
+    const { balancedRealSchur, eigenvaluesAndBalancedSchur, forgetRecentEigenvalues } = await import('../../server/src/numeric/eigenvectors');
+    for (const n of [6, 30, 50]) {
+      // Badly scaled rows and columns, so the balancing is not the identity.
+      const A = seededMatrix(n, n, 900 + n).map((row, i) => row.map((v, j) => (v * 2 ** (i % 7)) / 2 ** (j % 5)));
+      forgetRecentEigenvalues();
+      const plain = eigenvaluesWithStatus(A);
+      forgetRecentEigenvalues();
+      const kept = eigenvaluesAndBalancedSchur(A);
+      expect(kept).toEqual(plain);
+      const { T, Z, scaling } = balancedRealSchur(A); // from the memo
+      expect(Array.from(scaling).some((d) => d !== 1)).toBe(true);
+      let worst = 0;
+      let orthogonality = 0;
+      let scale = 0;
+      for (let i = 0; i < n; i++) {
+        for (let j = 0; j < n; j++) {
+          let sum = 0;
+          let gram = i === j ? -1 : 0;
+          for (let k = 0; k < n; k++) {
+            gram += Z.data[k * n + i] * Z.data[k * n + j];
+            for (let l = 0; l < n; l++) sum += Z.data[i * n + k] * T.data[k * n + l] * Z.data[j * n + l];
+          }
+          const balanced = (A[i][j] / scaling[i]) * scaling[j];
+          scale = Math.max(scale, Math.abs(balanced));
+          worst = Math.max(worst, Math.abs(sum - balanced));
+          orthogonality = Math.max(orthogonality, Math.abs(gram));
+        }
+      }
+      expect(worst).toBeLessThan(100 * n * EPS * scale);
+      expect(orthogonality).toBeLessThan(100 * n * EPS);
+    }
+  });
+});

@@ -26,7 +26,7 @@ import { adviseSamplePeriod } from './samplingAdvice';
 import { setpointGains, type SetpointResult } from './setpoint';
 import type { AnalysisSettings } from './settings';
 import { checkSpec, polesFromSpec } from './specToPoles';
-import { referenceClosedLoop, simulateStepResponses, type StepResponseProblem } from './stepResponse';
+import { MODAL_STEP_FROM_STATES, referenceClosedLoop, simulateStepResponses, type StepResponseProblem } from './stepResponse';
 import { measuresAllStates } from './structure';
 import { singularValuesOf } from './controlLinearAlgebra';
 
@@ -279,7 +279,10 @@ function computeGains(
     }
     // The condition estimate (two more n×n Schur-form solves) is left for later: the gains are
     // needed first, and the estimate can be computed beside the rest of the design.
-    const lqr = designLqr(problem.A, problem.B, problem.Q, problem.R, problem.N, model.domain, { conditionEstimate: false, start: riccatiStart });
+    // A tracking design's step response sums modes on the closed loop's Schur form from
+    // MODAL_STEP_FROM_STATES states on: the Riccati solver leaves that form behind.
+    const keepClosedLoopSchur = model.domain === 'continuous' && problem.A.length >= MODAL_STEP_FROM_STATES && (controller.track?.outputs.length ?? 0) > 0;
+    const lqr = designLqr(problem.A, problem.B, problem.Q, problem.R, problem.N, model.domain, { conditionEstimate: false, start: riccatiStart, keepClosedLoopSchur });
     if (!lqr.ok || !lqr.K) {
       out.push(findings.lqrFailure(controller.lqr.range, lqr));
       return null;

@@ -77,6 +77,8 @@ export interface LqrOptions {
    * solvers' warm start, which changes the route and not the equation solved.
    */
   start?: RiccatiStart;
+  /** Continuous designs: leave the closed loop's balanced Schur form in the numeric memo (for the step response). */
+  keepClosedLoopSchur?: boolean;
 }
 
 /**
@@ -170,7 +172,12 @@ export function designLqr(
 
   const solution =
     domain === 'continuous'
-      ? solveContinuousRiccati(A, B, Q, R, N, { conditionEstimate: options.conditionEstimate, start: options.start?.X, chordBasis: options.start?.chordBasis })
+      ? solveContinuousRiccati(A, B, Q, R, N, {
+          conditionEstimate: options.conditionEstimate,
+          start: options.start?.X,
+          chordBasis: options.start?.chordBasis,
+          keepClosedLoopSchur: options.keepClosedLoopSchur,
+        })
       : solveDiscreteRiccati(A, B, Q, R, N, { conditionEstimate: options.conditionEstimate, start: options.start?.X });
   const classicalMarginsApply = domain === 'continuous' && isDiagonal(R) && isZero(N);
   if (!solution.ok || !solution.X) {

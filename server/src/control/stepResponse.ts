@@ -10,8 +10,8 @@
 //    z[k+1] = e^{Acl h} z[k] + ∫₀ʰ e^{Acl τ}dτ Bcl r (Van Loan block exponential). Discrete
 //    designs run their own recursion at T. Loops of 24 states or more form only u and y, by
 //    blocks of 16 steps (numeric/linearRecursion.ts); continuous ones first as modal sums on the
-//    closed loop's Schur form (numeric/modalStepOutputs.ts, the same samples, n instead of n²
-//    work per step), kept where their rounding estimate is below 1e-9 of each signal.
+//    balanced closed loop's Schur form (numeric/modalStepOutputs.ts, the same samples, n instead
+//    of n² work per step), kept where their rounding estimate is below 1e-9 of each signal.
 //  • Saturated (actuator limits, u clipped to [low, high]): the loop is nonlinear; continuous
 //    designs are integrated by the classical fourth-order Runge–Kutta method with the same fixed
 //    step h (the saturation is evaluated at every stage); discrete designs are exact.
@@ -30,7 +30,7 @@
 // downsampled to at most `maxReturnedPoints` (default 500); metrics use the full grid.
 import type { Complex, Rows } from '../numeric/types';
 import type { NonlinearModel } from '../model/types';
-import { denseFromRows, eigenvalues, matrixExponentialIntegral, modalStepOutputs, outputsOfLinearRecursion, realSchurDense, solveLinear, type RealSchurDense } from '../numeric';
+import { balancedRealSchur, eigenvalues, matrixExponentialIntegral, modalStepOutputs, outputsOfLinearRecursion, solveLinear, type BalancedSchur } from '../numeric';
 import { computeStepMetrics, type InputLimit, type StepMetrics } from './stepMetrics';
 
 export interface StepResponseProblem {
@@ -306,10 +306,12 @@ function recurseLinear(transitionFlat: Float64Array, forcing: Float64Array, size
 /** Steps per block of the linear recursion by blocks, and the smallest loop it is used for. */
 const BLOCK_STEPS = 16;
 const BLOCK_MIN_STATES = 24;
+/** Continuous loops of this many states and more (with a long enough grid) are summed modally first. */
+export const MODAL_STEP_FROM_STATES = BLOCK_MIN_STATES;
 /** A modal step response is kept only when its rounding estimate is below this fraction of each signal's size. */
 const MODAL_STEP_ACCURACY = 1e-9;
 const TRANSITION_METHOD = 'exact zero-order-hold transition of the closed loop';
-const MODAL_METHOD = "exact modal sum on the closed loop's Schur form";
+const MODAL_METHOD = "exact modal sum on the balanced closed loop's Schur form";
 const DISCRETE_METHOD = 'exact discrete recursion';
 
 interface RawRun {
@@ -394,14 +396,22 @@ export function simulateStepResponses(problem: StepResponseProblem): StepRespons
   // stepping the state at 100 states. The states themselves are stepped one by one when they are
   // asked for, and for small loops, where that is cheap.
   const byBlocks = !problem.includeStates && size >= BLOCK_MIN_STATES && grid.count >= 4 * BLOCK_STEPS;
-  let closedLoopSchur: RealSchurDense | null | undefined;
+  // The balanced closed loop's Schur form, D⁻¹·Acl·D = Z·T·Zᵀ (an LQR design's Riccati solver
+  // usually left it in the numeric memo): z = D·w turns f into D⁻¹f and the output rows O into O·D.
+  let closedLoopSchur: BalancedSchur | null | undefined;
   const modalSchur = () => {
     if (closedLoopSchur === undefined) {
-      const schur = realSchurDense(denseFromRows(loop.Acl));
+      const schur = balancedRealSchur(loop.Acl);
       closedLoopSchur = schur.converged ? schur : null;
     }
     return closedLoopSchur;
   };
+  const balancedRows = (schur: BalancedSchur): Float64Array => {
+    const rows = signalRows.slice();
+    for (let r = 0; r < m + p; r++) for (let j = 0; j < size; j++) rows[r * size + j] *= schur.scaling[j];
+    return rows;
+  };
+  const balancedForcing = (schur: BalancedSchur, r: number[]): Float64Array => Float64Array.from(matVec(loop.Bcl, r), (value, i) => value / schur.scaling[i]);
   const signalRows = new Float64Array((m + p) * size);
   commandFlat.forEach((row, i) => signalRows.set(row, i * size));
   C.forEach((row, i) => signalRows.set(row, (m + i) * size));
@@ -414,7 +424,7 @@ export function simulateStepResponses(problem: StepResponseProblem): StepRespons
     if (byBlocks) {
       const rows = m + p;
       const schur = domain === 'continuous' ? modalSchur() : null;
-      const modal = schur ? modalStepOutputs(schur.T, schur.Z, Float64Array.from(matVec(loop.Bcl, r)), signalRows, rows, h, count, MODAL_STEP_ACCURACY) : null;
+      const modal = schur ? modalStepOutputs(schur.T, schur.Z, balancedForcing(schur, r), balancedRows(schur), rows, h, count, MODAL_STEP_ACCURACY) : null;
       linearMethods.add(modal ? MODAL_METHOD : domain === 'continuous' ? TRANSITION_METHOD : DISCRETE_METHOD);
       const signals = modal ?? outputsOfLinearRecursion(transition().flat, Float64Array.from(matVec(transition().Gamma, r)), size, count, signalRows, rows, BLOCK_STEPS);
       for (let k = 0; k < count; k++) {

@@ -5,7 +5,7 @@
 
 import { balanceDense } from './balance';
 import { complexDivide } from './lu';
-import { type Dense, denseFromRows } from './dense';
+import { type Dense, denseFromRows, transposeDense } from './dense';
 import { hessenbergDense } from './hessenberg';
 import { hessenbergQr, realSchurDense, type RealSchurOptions } from './schur';
 import type { Complex, ComplexRows, Rows } from './types';
@@ -47,6 +47,55 @@ export function eigenvaluesWithStatus(A: Rows, options: RealSchurOptions = {}): 
   return result;
 }
 
+export interface BalancedSchur {
+  /** D⁻¹·A·D = Z·T·Zᵀ with D = diag(scaling), powers of two (balance.ts). */
+  T: Dense;
+  Z: Dense;
+  scaling: Float64Array;
+  converged: boolean;
+}
+
+/**
+ * The eigenvalues eigenvaluesWithStatus gives (the same balancing, Hessenberg form and QR sweeps,
+ * so the same numbers: accumulating Z changes no arithmetic on the active block), computed with
+ * the Schur vectors of the balanced matrix, which balancedRealSchur then finds in its memo.
+ */
+export function eigenvaluesAndBalancedSchur(A: Rows): EigenvaluesOutcome {
+  const schur = balancedRealSchur(A);
+  if (!schur.outcome) return eigenvaluesWithStatus(A);
+  return copyOutcome(schur.outcome);
+}
+
+/**
+ * Real Schur form of the balanced A (D⁻¹·A·D = Z·T·Zᵀ), remembered for the last two matrices by
+ * exact content (the step response asks for the closed loop the Riccati solver just formed).
+ */
+export function balancedRealSchur(A: Rows): BalancedSchur & { outcome?: EigenvaluesOutcome } {
+  const matrix = denseFromRows(A);
+  const n = matrix.rows;
+  const remembered = recentSchurForms.find((entry) => sameEntries(entry.data, matrix.data));
+  if (remembered) return remembered.schur;
+  if (n === 0 || !matrix.data.every(Number.isFinite)) {
+    return { T: matrix, Z: matrix, scaling: new Float64Array(n).fill(1), converged: n === 0 };
+  }
+  const { scaled, scaling } = balanceDense(matrix);
+  const { H, Q } = hessenbergDense(scaled, true);
+  const zt = transposeDense(Q!);
+  const outcome = hessenbergQr(H.data, n, zt.data, true);
+  for (let i = 2; i < n; i++) H.data.fill(0, i * n, i * n + i - 1);
+  const result = { values: sortComplex(outcome.eigenvalues), converged: outcome.converged };
+  if (n >= MEMO_FROM_ORDER && !recentEigenvalues.some((entry) => entry.maxSweeps === undefined && sameEntries(entry.data, matrix.data))) {
+    recentEigenvalues.unshift({ data: matrix.data.slice(), maxSweeps: undefined, outcome: copyOutcome(result) });
+    recentEigenvalues.length = Math.min(recentEigenvalues.length, MEMO_SIZE);
+  }
+  const schur = { T: H, Z: transposeDense(zt), scaling, converged: outcome.converged, outcome: result };
+  recentSchurForms.unshift({ data: matrix.data.slice(), schur });
+  recentSchurForms.length = Math.min(recentSchurForms.length, 2);
+  return schur;
+}
+
+const recentSchurForms: { data: Float64Array; schur: BalancedSchur & { outcome: EigenvaluesOutcome } }[] = [];
+
 // The analysis of one design asks for the eigenvalues of the same closed loop in several places
 // (the Riccati solver's check, the step response's horizon, the margins' frequency grid), each
 // forming A − B·K itself. The last few results are kept by exact content: an entry-by-entry
@@ -58,6 +107,7 @@ const recentEigenvalues: { data: Float64Array; maxSweeps: number | undefined; ou
 /** Empties the memo (benchmarks time fresh computations; nothing else needs this). */
 export function forgetRecentEigenvalues(): void {
   recentEigenvalues.length = 0;
+  recentSchurForms.length = 0;
 }
 
 function sameEntries(a: Float64Array, b: Float64Array): boolean {

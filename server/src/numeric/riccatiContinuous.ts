@@ -29,7 +29,7 @@ import {
 import { luFactor, luSolveDense, reciprocalConditionEstimate } from './lu';
 import { solveLyapunovContinuousDense } from './lyapunov';
 import { matrixSignDense } from './matrixSign';
-import { eigenvaluesWithStatus } from './eigenvectors';
+import { eigenvaluesAndBalancedSchur, eigenvaluesWithStatus } from './eigenvectors';
 import { eigenvaluesOfQuasiTriangular, realSchurDense, type RealSchurDense } from './schur';
 import { orderedRealSchurDense } from './schurReorder';
 import type { Complex, Rows } from './types';
@@ -357,6 +357,12 @@ export interface ContinuousRiccatiOptions {
   start?: Rows;
   /** With `start`: the chord basis a previous solve returned (RiccatiSolution.chordBasis). */
   chordBasis?: ChordBasis;
+  /**
+   * With conditionEstimate false: the closed-loop eigenvalues (the same numbers) come with the
+   * balanced closed loop's Schur vectors, left in balancedRealSchur's memo for a caller that
+   * needs that form next (the step response).
+   */
+  keepClosedLoopSchur?: boolean;
 }
 
 /**
@@ -547,7 +553,7 @@ function finishContinuous(
   let converged: boolean;
   let conditionEstimate = NaN;
   if (options.conditionEstimate === false) {
-    const outcome = eigenvaluesWithStatus(denseToRows(closedLoop));
+    const outcome = options.keepClosedLoopSchur ? eigenvaluesAndBalancedSchur(denseToRows(closedLoop)) : eigenvaluesWithStatus(denseToRows(closedLoop));
     closedLoopEigenvalues = outcome.values;
     converged = outcome.converged;
   } else {
