@@ -5,7 +5,8 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { MessageChannel, Worker } from 'node:worker_threads';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import * as setpointModule from '../../server/src/control/setpoint';
 import { analyzeFastCheck, checkText, fragilityOf, HELPER_FROM_STATES, plantReportsOf, prepareFragility, type AnalysisHelper } from '../../server/src/analyze';
 import { riccatiConditionOf, type FragilityRequest } from '../../server/src/control/controllerDesign';
 import { ANSWERS_POSTED, HELPER_BUSY, HELPER_CELLS, HELPER_GONE } from '../../server/src/lsp/analysisHelper';
@@ -47,6 +48,44 @@ describe('analysis split across a helper (same thread)', () => {
     expect(cloneable(split.diagnostics)).toEqual(cloneable(single.diagnostics));
     expect(cloneable(split.plants)).toEqual(cloneable(single.plants));
     expect(cloneable(split.controllers)).toEqual(cloneable(single.controllers));
+  });
+
+  it('the fragility study starts once, before the set-point rank decision, wherever the square prescaler is the one decided', () => {
+    const events: string[] = [];
+    const original = setpointModule.setpointGains;
+    const setpointDecisions = vi.spyOn(setpointModule, 'setpointGains').mockImplementation((...args) => {
+      events.push('set-point decided');
+      return original(...args);
+    });
+    let speculated = 0;
+    for (const sample of samples) {
+      const text = sampleText(sample);
+      const helperParse = checkText(text);
+      const requests = new Map<number, number>();
+      events.length = 0;
+      const helper: AnalysisHelper = {
+        plantReports: () => plantReportsOf(helperParse, {}),
+        startFragility: (controllerIndex, request) => {
+          events.push(`request ${controllerIndex}`);
+          requests.set(controllerIndex, (requests.get(controllerIndex) ?? 0) + 1);
+          const result = fragilityOf(helperParse, controllerIndex, request);
+          return () => result;
+        },
+      };
+      const split = analyzeFastCheck(checkText(text), {}, { helper, helperFromStates: 0 });
+      split.controllers.forEach((controller, index) => {
+        // Square set-point equations of full rank: one request, made early and kept.
+        if (controller.details.setpointFeasibility === 'unique' && controller.prescaler && controller.Ki === null) {
+          expect(requests.get(index)).toBe(1);
+          // Requested before the set-point analysis decided the rank: the next event is that decision.
+          expect(events[events.indexOf(`request ${index}`) + 1]).toBe('set-point decided');
+          speculated++;
+        }
+        expect(requests.get(index) ?? 0).toBeLessThanOrEqual(2);
+      });
+    }
+    expect(speculated).toBeGreaterThan(2);
+    setpointDecisions.mockRestore();
   });
 
   it('plants rebuilt ahead of the gains are exactly the ones the fragility study needs', () => {

@@ -23,7 +23,7 @@ import { compareObserverSpeed, defaultObserverPoles, designObserverByPlacement }
 import { placePoles } from './placement';
 import type { ControllerReport, ImplementationReport, StepResponseReport } from './reportTypes';
 import { adviseSamplePeriod } from './samplingAdvice';
-import { setpointGains, type SetpointResult } from './setpoint';
+import { setpointGains, squareSetpointPrescaler, type SetpointResult } from './setpoint';
 import type { AnalysisSettings } from './settings';
 import { checkSpec, polesFromSpec } from './specToPoles';
 import { MODAL_STEP_FROM_STATES, referenceClosedLoop, simulateStepResponses, type StepResponseProblem } from './stepResponse';
@@ -108,6 +108,11 @@ function designMatricesRebuilder(
     prepared?.set(key, matrices);
     return matrices;
   };
+}
+
+/** Bit for bit equal (−0 apart from 0): the same numbers, not merely close ones. */
+function sameEntries(a: Rows, b: Rows): boolean {
+  return a.length === b.length && a.every((row, i) => row.length === b[i].length && row.every((value, j) => Object.is(value, b[i][j])));
 }
 
 /** The fragility study of a controller on its plant, re-checking the plant with parameters moved. */
@@ -475,6 +480,28 @@ export function designController(
   });
   report.designed = true;
 
+  // The fragility study needs the gains and the prescaler. With a helper thread it starts before
+  // the set-point analysis decides the rank (two SVDs), on the prescaler of the square solve
+  // (squareSetpointPrescaler, the same LU solve setpointGains uses), and is kept only if
+  // setpointGains then returns exactly that prescaler.
+  const integral = integrated.length ? { Kx, Ki, outputs: integrated } : undefined;
+  const fragilityRequestFor = (N: Rows): FragilityRequest => ({
+    ...fragilityPointsOf(plant, nd + integrated.length, settings),
+    K: Kx,
+    N,
+    trackedOutputs: tracked,
+    domain: model.domain,
+    samplePeriod: model.T ?? undefined,
+    integral,
+    // Without integral states the study's nominal loop is the LQR closed loop itself.
+    lyapunovMatrix: integrated.length ? undefined : gains.riccatiSolution,
+  });
+  const speculativePrescaler =
+    tracked.length && context.rebuildPlant && context.startFragility
+      ? squareSetpointPrescaler(model.A, model.B, model.C, model.D, tracked, Kx, model.domain)
+      : null;
+  const speculativeFragility = speculativePrescaler && context.startFragility ? context.startFragility(fragilityRequestFor(speculativePrescaler)) : null;
+
   // Set-point gains and the closed-loop DC gain, decided by the rank of the Rosenbrock matrix.
   let setpoint: SetpointResult | null = null;
   if (tracked.length) {
@@ -489,24 +516,15 @@ export function designController(
     report.dcGain = setpoint.dcGainDefined ? setpoint.closedLoopDcGain : null;
   }
 
-  // The fragility study needs only the gains and the prescaler: start it now where it can run
-  // alongside the rest of the design (its verdict joins the diagnostics at the end, as always).
-  const integral = integrated.length ? { Kx, Ki, outputs: integrated } : undefined;
-  const fragilityRequest: FragilityRequest | null =
-    tracked.length && report.prescaler && context.rebuildPlant
-      ? {
-          ...fragilityPointsOf(plant, nd + integrated.length, settings),
-          K: Kx,
-          N: report.prescaler,
-          trackedOutputs: tracked,
-          domain: model.domain,
-          samplePeriod: model.T ?? undefined,
-          integral,
-          // Without integral states the study's nominal loop is the LQR closed loop itself.
-          lyapunovMatrix: integrated.length ? undefined : gains.riccatiSolution,
-        }
-      : null;
-  const pendingFragility = fragilityRequest && context.startFragility ? context.startFragility(fragilityRequest) : null;
+  // The fragility study runs alongside the rest of the design (its verdict joins the diagnostics
+  // at the end, as always): the speculative one when its prescaler is the one decided, else now.
+  const fragilityRequest: FragilityRequest | null = tracked.length && report.prescaler && context.rebuildPlant ? fragilityRequestFor(report.prescaler) : null;
+  const pendingFragility =
+    fragilityRequest && speculativeFragility && speculativePrescaler && sameEntries(speculativePrescaler, fragilityRequest.N)
+      ? speculativeFragility
+      : fragilityRequest && context.startFragility
+        ? context.startFragility(fragilityRequest)
+        : null;
 
   // Observer (estimator) and the full-state warning.
   const observerInfo = designEstimator(controller, plant, model, gains.closedLoopPoles, settings, out, context.riccatiStart);

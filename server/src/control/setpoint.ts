@@ -60,6 +60,34 @@ function rankTolerance(s: number[], rows: number, cols: number): number {
   return 10 * Math.max(rows, cols) * EPS * (s[0] ?? 0);
 }
 
+/** [0; I]: the right-hand side of the set-point equations, (n + q) × q. */
+function outputSelector(n: number, q: number): Rows {
+  return Array.from({ length: n + q }, (_, i) => Array.from({ length: q }, (_, j) => (i === n + j ? 1 : 0)));
+}
+
+/** N = Nu + K·Nx. */
+function prescalerOf(Nx: Rows, Nu: Rows, K: Rows): Rows {
+  return Nu.map((row, i) => row.map((v, j) => v + K[i].reduce((sum, k, c) => sum + k * Nx[c][j], 0)));
+}
+
+/**
+ * The prescaler setpointGains returns when the square set-point equations (q = m) have full rank,
+ * by the same LU solve, before their rank is decided (which takes two SVDs): a caller may start
+ * work on it early and keep that work only if setpointGains then returns exactly this N. Null
+ * when q ≠ m or the LU solve finds M singular.
+ */
+export function squareSetpointPrescaler(A: Rows, B: Rows, C: Rows, D: Rows, trackedOutputs: number[], K: Rows, domain: Domain): Rows | null {
+  const n = A.length;
+  const m = n > 0 ? (B[0]?.length ?? 0) : (D[0]?.length ?? 0);
+  const q = trackedOutputs.length;
+  if (q === 0 || q !== m) return null;
+  const Ct = trackedOutputs.map((i) => C[i].slice());
+  const Dt = trackedOutputs.map((i) => (D[i] ?? new Array<number>(m).fill(0)).slice());
+  const square = solveRows(rosenbrockAtDc(A, B, Ct, Dt, domain), outputSelector(n, q));
+  if (square.singular) return null;
+  return prescalerOf(square.X.slice(0, n), square.X.slice(n), K);
+}
+
 export function setpointGains(
   A: Rows,
   B: Rows,
@@ -123,12 +151,12 @@ export function setpointGains(
   // [Nx; Nu] = M⁺·[0; I]: for a square M of full rank that is M⁻¹·[0; I], by LU with partial
   // pivoting (backward stable; M is well enough conditioned here, or illConditioned says so);
   // otherwise on the retained singular values of the thin SVD.
-  const rhs = Array.from({ length: n + q }, (_, i) => Array.from({ length: q }, (_, j) => (i === n + j ? 1 : 0)));
+  const rhs = outputSelector(n, q);
   const square = q === m && rank === n + q ? solveRows(M, rhs) : null;
   const X = square && !square.singular ? square.X : minimumNormSolution(M, rhs, rank);
   const Nx = X.slice(0, n);
   const Nu = X.slice(n);
-  const prescaler = Nu.map((row, i) => row.map((v, j) => v + K[i].reduce((sum, k, c) => sum + k * Nx[c][j], 0)));
+  const prescaler = prescalerOf(Nx, Nu, K);
   const feasibility: SetpointFeasibility = q === m && rankTop === n ? 'unique' : 'minimum-norm';
   let prescalerFromDcGain: Rows | null = null;
   if (dc.gain && q === m && q > 0) {

@@ -32,12 +32,12 @@ export const HELPER_CELLS = 3;
 
 export type ToHelper =
   | { kind: 'start'; job: number; text: string; settings: Partial<AnalysisSettings> }
-  | { kind: 'fragility'; job: number; controllerIndex: number; request: FragilityRequest }
+  | { kind: 'fragility'; job: number; controllerIndex: number; sequence: number; request: FragilityRequest }
   | { kind: 'condition'; job: number; controllerIndex: number; request: RiccatiConditionRequest };
 
 export type FromHelper =
   | { kind: 'plants'; job: number; reports: PlantReport[] | null }
-  | { kind: 'fragility'; job: number; controllerIndex: number; result: FragilityResult | null }
+  | { kind: 'fragility'; job: number; controllerIndex: number; sequence: number; result: FragilityResult | null }
   | { kind: 'condition'; job: number; controllerIndex: number; value: number | null };
 
 /**
@@ -95,7 +95,7 @@ export function serveAsHelper(port: MessagePort, cells: Int32Array, log: (messag
       log(`analysis helper: fragility failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
     }
     traceMark('helper: fragility study done');
-    answer({ kind: 'fragility', job: message.job, controllerIndex: message.controllerIndex, result });
+    answer({ kind: 'fragility', job: message.job, controllerIndex: message.controllerIndex, sequence: message.sequence, result });
   };
   port.on('message', (message: ToHelper) => {
     Atomics.store(cells, HELPER_BUSY, 1);
@@ -147,6 +147,7 @@ export function helperForJob(
   // The helper starts on this job only when the coordinator asks (a document large enough for a
   // second thread to pay); a helper never begun is asked nothing.
   let started = false;
+  let fragilityRequests = 0;
   return {
     begin: () => {
       if (!started) started = send({ kind: 'start', job, text, settings });
@@ -158,12 +159,16 @@ export function helperForJob(
     },
     startFragility: (controllerIndex, request) => {
       traceMark('coordinator: gains known, fragility handed over');
-      const sent = started && send({ kind: 'fragility', job, controllerIndex, request });
+      // A controller's study may be asked for twice (a speculative early start, then the final
+      // prescaler): each answer is matched to its own request.
+      const sequence = fragilityRequests++;
+      const sent = started && send({ kind: 'fragility', job, controllerIndex, sequence, request });
       return () => {
         traceMark('coordinator: waits for the fragility study');
         if (!sent) return null;
         const answer = waitFor(
-          (message): message is Extract<FromHelper, { kind: 'fragility' }> => message.kind === 'fragility' && message.controllerIndex === controllerIndex,
+          (message): message is Extract<FromHelper, { kind: 'fragility' }> =>
+            message.kind === 'fragility' && message.controllerIndex === controllerIndex && message.sequence === sequence,
         );
         return answer?.result ?? null;
       };
