@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { setpointGains } from '../../server/src/control/setpoint';
+import { setpointGains, squareSetpointPrescaler } from '../../server/src/control/setpoint';
 import { placePoles } from '../../server/src/control/placement';
 import { analyzeModes } from '../../server/src/control/modes';
 import { defaultSettings } from '../../server/src/control/settings';
@@ -172,3 +172,28 @@ describe('modes', () => {
     expect(analyzeModes([[0]], 'discrete').modes[0].timeConstant).toBe(0);
   });
 });
+
+describe('the square prescaler computed ahead of the rank decision', () => {
+  it('is exactly the prescaler setpointGains returns for full-rank square equations', () => {
+    const K = [[2, 1.5]];
+    const early = squareSetpointPrescaler(cartA, cartB, [[1, 0]], [[0]], [0], K, 'continuous');
+    const decided = setpointGains(cartA, cartB, [[1, 0]], [[0]], [0], K, 'continuous');
+    expect(decided.feasibility).toBe('unique');
+    expect(early).not.toBeNull();
+    expect(early).toEqual(decided.prescaler);
+    early!.forEach((row, i) => row.forEach((value, j) => expect(Object.is(value, decided.prescaler![i][j])).toBe(true)));
+  });
+
+  it('is withheld for a zero at s = 0 that rounding leaves without an exact zero pivot', () => {
+    // C orthogonal to the computed A⁻¹B: C·A⁻¹·B = 0, a zero at s = 0, up to rounding. The LU
+    // factorisation of [A B; C 0] meets no exactly zero pivot here (its condition estimate is
+    // about 4e-19), so only the condition guard keeps the early study from starting.
+    const A = [[-11, 4.21, -2.11], [-2.89, -3.71, 0.33], [-1.71, 2.52, -3.45]];
+    const B = [[0.43], [1.85], [1.36]];
+    const C = [[-0.4905577549527457, 0.09116014015463376, 0]];
+    const K = [[0.1, 0.2, 0.3]];
+    expect(setpointGains(A, B, C, [[0]], [0], K, 'continuous').feasibility).toBe('zero-at-dc');
+    expect(squareSetpointPrescaler(A, B, C, [[0]], [0], K, 'continuous')).toBeNull();
+  });
+});
+

@@ -58,6 +58,7 @@ describe('analysis split across a helper (same thread)', () => {
       return original(...args);
     });
     let speculated = 0;
+    let zeroAtDc = 0;
     for (const sample of samples) {
       const text = sampleText(sample);
       const helperParse = checkText(text);
@@ -81,10 +82,16 @@ describe('analysis split across a helper (same thread)', () => {
           expect(events[events.indexOf(`request ${index}`) + 1]).toBe('set-point decided');
           speculated++;
         }
+        // A zero at s = 0 (no prescaler): no study is started, not even a speculative one.
+        if (controller.details.setpointFeasibility === 'zero-at-dc') {
+          expect(requests.get(index)).toBeUndefined();
+          zeroAtDc++;
+        }
         expect(requests.get(index) ?? 0).toBeLessThanOrEqual(2);
       });
     }
     expect(speculated).toBeGreaterThan(2);
+    expect(zeroAtDc).toBeGreaterThan(0);
     setpointDecisions.mockRestore();
   });
 

@@ -13,7 +13,9 @@ import {
   eigenvectorsFromSchur,
   luFactor,
   luSolveDense,
+  norm1Dense,
   realSchurDense,
+  reciprocalConditionEstimate,
   svdDense,
 } from '../numeric';
 
@@ -114,11 +116,22 @@ export function conditionNumber2(M: Rows): number {
 
 /** Solve A·X = B by LU with partial pivoting; `singular` when a pivot vanishes exactly. */
 export function solveRows(A: Rows, B: Rows): { X: Rows; singular: boolean } {
-  if (A.length === 0) return { X: [], singular: false };
-  if (B.length === 0 || B[0].length === 0) return { X: A.map(() => []), singular: false };
-  const factor = luFactor(denseFromRows(A));
-  if (factor.hasZeroPivot) return { X: zerosRows(A.length, B[0]?.length ?? 0), singular: true };
-  return { X: denseToRows(luSolveDense(factor, denseFromRows(B))), singular: false };
+  const { X, singular } = solveRowsWithCondition(A, B, false);
+  return { X, singular };
+}
+
+/**
+ * solveRows (the same X, by the same LU solve) with the reciprocal 1-norm condition estimate of A
+ * (Hager/Higham, numeric/lu.ts); NaN when `estimate` is false, 0 when A is exactly singular.
+ */
+export function solveRowsWithCondition(A: Rows, B: Rows, estimate = true): { X: Rows; singular: boolean; rcond: number } {
+  if (A.length === 0) return { X: [], singular: false, rcond: 1 };
+  if (B.length === 0 || B[0].length === 0) return { X: A.map(() => []), singular: false, rcond: NaN };
+  const matrix = denseFromRows(A);
+  const factor = luFactor(matrix);
+  if (factor.hasZeroPivot) return { X: zerosRows(A.length, B[0]?.length ?? 0), singular: true, rcond: 0 };
+  const rcond = estimate ? reciprocalConditionEstimate(factor, norm1Dense(matrix)) : NaN;
+  return { X: denseToRows(luSolveDense(factor, denseFromRows(B))), singular: false, rcond };
 }
 
 export function transposeRows(M: Rows): Rows {

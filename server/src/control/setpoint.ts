@@ -6,7 +6,7 @@
 import type { Rows } from '../numeric/types';
 import type { AnalysisSettings } from './settings';
 import { defaultSettings } from './settings';
-import { EPS, frobenius, singularValuesOf, solveRows, thinSvd, transposeRows } from './controlLinearAlgebra';
+import { EPS, frobenius, singularValuesOf, solveRows, solveRowsWithCondition, thinSvd, transposeRows } from './controlLinearAlgebra';
 import type { Domain } from './structure';
 import { closedLoopDcGain } from './dcGain';
 
@@ -74,7 +74,7 @@ function prescalerOf(Nx: Rows, Nu: Rows, K: Rows): Rows {
  * The prescaler setpointGains returns when the square set-point equations (q = m) have full rank,
  * by the same LU solve, before their rank is decided (which takes two SVDs): a caller may start
  * work on it early and keep that work only if setpointGains then returns exactly this N. Null
- * when q ≠ m or the LU solve finds M singular.
+ * when q ≠ m or M is singular or nearly so.
  */
 export function squareSetpointPrescaler(A: Rows, B: Rows, C: Rows, D: Rows, trackedOutputs: number[], K: Rows, domain: Domain): Rows | null {
   const n = A.length;
@@ -83,8 +83,11 @@ export function squareSetpointPrescaler(A: Rows, B: Rows, C: Rows, D: Rows, trac
   if (q === 0 || q !== m) return null;
   const Ct = trackedOutputs.map((i) => C[i].slice());
   const Dt = trackedOutputs.map((i) => (D[i] ?? new Array<number>(m).fill(0)).slice());
-  const square = solveRows(rosenbrockAtDc(A, B, Ct, Dt, domain), outputSelector(n, q));
-  if (square.singular) return null;
+  const square = solveRowsWithCondition(rosenbrockAtDc(A, B, Ct, Dt, domain), outputSelector(n, q));
+  // Only well away from the rank decision's threshold (σ_min ≤ 10·max(rows, cols)·ε·σ_max; the
+  // 1-norm estimate is within a factor n of that ratio): a matrix the set-point analysis will call
+  // rank deficient (a zero at s = 0) never gets a speculative study.
+  if (square.singular || !(square.rcond >= 1e3 * 10 * (n + q) * EPS)) return null;
   return prescalerOf(square.X.slice(0, n), square.X.slice(n), K);
 }
 
