@@ -35,6 +35,7 @@ export function transferEvaluator(A: Rows, B: Rows, C: Rows, D: Rows, schurOfA?:
 /**
  * G(λ) = C̃ (λI − T)⁻¹ B̃ + D with A = Z T Zᵀ, B̃ = Zᵀ B, C̃ = C Z; null when the Schur form fails.
  * A Schur form of A already at hand (shared by several responses of one loop) may be passed in.
+ * From `modalFromStates` states on (default MODAL_FROM_STATES) values are first tried as modal sums.
  */
 export function schurTransferEvaluator(
   A: Rows,

@@ -3,7 +3,6 @@
 // is shared by all threads of the process). Off by default; then each mark costs one comparison.
 import { appendFileSync } from 'node:fs';
 import { PerformanceObserver } from 'node:perf_hooks';
-import { isMainThread, threadId } from 'node:worker_threads';
 
 const traceFile = process.env.LOOPWRIGHT_TRACE;
 
@@ -24,10 +23,12 @@ export function traceGarbageCollection(thread: string): void {
       if (entry.duration < 1) continue;
       const kind = (entry as { detail?: { kind?: number } }).detail?.kind;
       // The entry's start time is on this thread's clock: its epoch time is timeOrigin + startTime.
-      appendFileSync(traceFile, `${(performance.timeOrigin + entry.startTime).toFixed(1)} ${thread}: gc kind ${kind} ${entry.duration.toFixed(1)} ms\n`);
+      try {
+        appendFileSync(traceFile, `${(performance.timeOrigin + entry.startTime).toFixed(1)} ${thread}: gc kind ${kind} ${entry.duration.toFixed(1)} ms\n`);
+      } catch {
+        // tracing must never disturb an analysis
+      }
     }
   });
   observer.observe({ entryTypes: ['gc'] });
-  void isMainThread;
-  void threadId;
 }
