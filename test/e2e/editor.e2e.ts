@@ -1,7 +1,7 @@
 // The extension in a real editor: language mode and highlighting, diagnostics (problems view and
 // squiggles), hover, code lens, the integral-action quick fix, and the response panel.
 // Expected numbers are worked out by hand in the comments beside each check.
-import { existsSync, readFileSync } from 'node:fs';
+import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { repoRoot, resultsDir, startEditor, type Editor } from './harness';
@@ -125,9 +125,16 @@ describe('Loopwright in a real editor', () => {
     await expect.poll(() => input.inputValue(), { timeout: 30_000 }).toMatch(/lift-gains\.json$/);
     await page.keyboard.press('Enter');
     const target = join(editor.workspace, 'lift-gains.json');
-    await expect.poll(() => existsSync(target), { timeout: 30_000 }).toBe(true);
-    const exported = readFileSync(target, 'utf8');
-    const { K } = JSON.parse(exported) as { K: number[][] };
+    // The editor may create the file before its content lands: wait for a complete JSON document, not just the file.
+    const readExport = (): { K: number[][] } | undefined => {
+      try {
+        return JSON.parse(readFileSync(target, 'utf8')) as { K: number[][] };
+      } catch {
+        return undefined;
+      }
+    };
+    await expect.poll(readExport, { timeout: 30_000 }).toBeDefined();
+    const { K } = readExport()!;
     // k1 = 3.75, k2 = 1.15 (worked out by hand above).
     expect(K[0][0]).toBeCloseTo(3.75, 9);
     expect(K[0][1]).toBeCloseTo(1.15, 9);
