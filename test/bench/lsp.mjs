@@ -13,7 +13,7 @@
 // `--soak N` instead replays N seeded random edits (default 10,000) with requests in between
 // and reports whether the server stayed up and answered everything.
 import { spawn } from 'node:child_process';
-import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { appendFileSync, existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { performance } from 'node:perf_hooks';
@@ -138,6 +138,9 @@ const percentile = (values, p) => {
 };
 const ms = (value) => (Number.isFinite(value) ? value.toFixed(1) : '—');
 
+// A mark of this process in the server's trace file (same epoch clock as server/src/lsp/trace.ts).
+const clientMark = (file, label, time) => appendFileSync(file, `${(performance.timeOrigin + time).toFixed(1)} ${label}\n`);
+
 async function measureEdits(n, edits, env = {}, firstEdit = 0, bundle = serverBundle) {
   const session = startSession({ debounceMs: 0 }, env, bundle);
   await session.initialize();
@@ -157,12 +160,19 @@ async function measureEdits(n, edits, env = {}, firstEdit = 0, bundle = serverBu
     const fastEvent = session.waitFor((e) => e.kind === 'diagnostics' && e.uri === uri && e.version === version);
     const fullEvent = session.waitFor((e) => e.kind === 'analysed' && e.uri === uri && e.version === version);
     const start = performance.now();
+    if (env.LOOPWRIGHT_TRACE) clientMark(env.LOOPWRIGHT_TRACE, 'client: didChange sent', start);
     await session.connection.sendNotification('textDocument/didChange', {
       textDocument: { uri, version },
       contentChanges: [{ range: { start: { line, character: 12 }, end: { line, character: 12 + (i === 0 ? 3 : 6) } }, text: value }],
     });
-    fast.push((await fastEvent).time - start);
-    full.push((await fullEvent).time - start);
+    const fastTime = (await fastEvent).time;
+    const fullTime = (await fullEvent).time;
+    fast.push(fastTime - start);
+    full.push(fullTime - start);
+    if (env.LOOPWRIGHT_TRACE) {
+      clientMark(env.LOOPWRIGHT_TRACE, 'client: fast diagnostics', fastTime);
+      clientMark(env.LOOPWRIGHT_TRACE, 'client: full analysis', fullTime);
+    }
   }
   await session.stop();
   return { fast, full };
@@ -289,25 +299,33 @@ async function printTimeline(n, edits) {
   });
   rmSync(directory, { recursive: true, force: true });
   marks.sort((a, b) => a.time - b.time);
-  const jobs = [];
+  // One group per edit, from the client's didChange to its result; offsets are measured from the
+  // coordinator's job start (marks before it, on the client and the server's main thread, are negative).
+  const groups = [];
   for (const mark of marks) {
-    if (mark.label === 'coordinator: job start') jobs.push({ start: mark.time, offsets: new Map(), collections: new Map() });
-    else if (!jobs.length) continue;
-    else if (mark.label.includes(': gc ')) {
+    if (mark.label === 'client: didChange sent') groups.push({ marks: [], collections: new Map() });
+    else if (!groups.length) continue; // the didOpen's analysis
+    const group = groups[groups.length - 1];
+    if (mark.label.includes(': gc ')) {
       // "<thread>: gc kind <k> <ms> ms": summed per thread and job.
       const [thread, rest] = mark.label.split(': gc ');
-      const milliseconds = Number(rest.split(' ')[2]);
-      const collections = jobs[jobs.length - 1].collections;
-      collections.set(thread, (collections.get(thread) ?? 0) + milliseconds);
-    } else if (!jobs[jobs.length - 1].offsets.has(mark.label)) jobs[jobs.length - 1].offsets.set(mark.label, mark.time - jobs[jobs.length - 1].start);
+      group.collections.set(thread, (group.collections.get(thread) ?? 0) + Number(rest.split(' ')[2]));
+    } else group.marks.push(mark);
   }
-  const measured = jobs.slice(1); // the first job is the didOpen
+  const measured = [];
+  for (const group of groups) {
+    const start = group.marks.find((mark) => mark.label === 'coordinator: job start');
+    if (!start) continue;
+    const offsets = new Map();
+    for (const mark of group.marks) if (!offsets.has(mark.label)) offsets.set(mark.label, mark.time - start.time);
+    measured.push({ offsets, collections: group.collections });
+  }
   const labels = [...new Set(measured.flatMap((job) => [...job.offsets.keys()]))];
   const rows = labels.map((label) => [label, percentile(measured.map((job) => job.offsets.get(label)).filter((v) => v !== undefined), 50)]);
   rows.sort((a, b) => a[1] - b[1]);
   console.log(`${n}-state model, ${measured.length} edits: median ms after the coordinator starts the job`);
   for (const [label, offset] of rows) console.log(`${ms(offset).padStart(8)}  ${label}`);
-  console.log(`${ms(percentile(full, 50)).padStart(8)}  didChange → full diagnostics (client side)`);
+  console.log(`${ms(percentile(full, 50)).padStart(8)}  didChange → full diagnostics (client side, from didChange)`);
   for (const thread of ['coordinator', 'helper']) {
     const totals = measured.map((job) => job.collections.get(thread) ?? 0);
     console.log(`${ms(percentile(totals, 50)).padStart(8)}  ${thread}: garbage collection per job (median of the sum of pauses ≥ 1 ms)`);

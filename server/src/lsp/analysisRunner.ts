@@ -156,6 +156,7 @@ export class AnalysisRunner {
   private runInWorker(pending: Pending): void {
     const worker = this.ensureWorker();
     worker.postMessage(pending.job);
+    traceMark('server: job posted');
   }
 
   private ensureWorker(): Worker {

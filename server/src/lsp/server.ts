@@ -195,6 +195,7 @@ export function startServer(connection: Connection, options: ServerOptions = {})
   }
 
   function changeDocument(state: DocumentState, changes: TextDocumentContentChangeEvent[], version: number): void {
+    traceMark('server: change received');
     state.document = TextDocument.update(state.document, changes, version);
     state.carried = moveCarried(state.carried, changes);
     stopTimers(state);
@@ -230,6 +231,7 @@ export function startServer(connection: Connection, options: ServerOptions = {})
     state.fastEnded = performance.now();
     state.fastDuration = state.fastEnded - started;
     publish(state, [...state.fast.diagnostics, ...state.carried].sort(byPosition));
+    traceMark('server: fast diagnostics published');
     if (!startedEarly) scheduleSlow(state);
   }
 
