@@ -60,6 +60,12 @@ function rankTolerance(s: number[], rows: number, cols: number): number {
   return 10 * Math.max(rows, cols) * EPS * (s[0] ?? 0);
 }
 
+/** Numerical rank of the top n rows [A B] of the Rosenbrock matrix, with the tolerance of rankTolerance. */
+function topRowRank(top: Rows, n: number, m: number): number {
+  const s = singularValuesOf(top);
+  return s.filter((v) => v > rankTolerance(s, n, n + m)).length;
+}
+
 /** [0; I]: the right-hand side of the set-point equations, (n + q) × q. */
 function outputSelector(n: number, q: number): Rows {
   return Array.from({ length: n + q }, (_, i) => Array.from({ length: q }, (_, j) => (i === n + j ? 1 : 0)));
@@ -112,9 +118,11 @@ export function setpointGains(
   const s = singularValuesOf(M);
   const tolerance = rankTolerance(s, n + q, n + m);
   const rank = s.filter((v) => v > tolerance).length;
-  const top = M.slice(0, n);
-  const sTop = singularValuesOf(top);
-  const rankTop = n === 0 ? 0 : sTop.filter((v) => v > rankTolerance(sTop, n, n + m)).length;
+  // rank [A B] (A − I for sampled plants) is n whenever M has full row rank n + q: deleting q rows
+  // interlaces the singular values, σ_n(top) ≥ σ_(n+q)(M) (interlacing theorem, from memory), and
+  // top's tolerance is never the larger one (σ_1(top) ≤ σ_1(M), fewer rows). So the second
+  // decomposition is needed only when M loses rank.
+  const rankTop = n === 0 ? 0 : rank === n + q ? n : topRowRank(M.slice(0, n), n, m);
   const expected = rankTop + q;
   const smallest = s.length === 0 ? 0 : s[Math.min(s.length, n + q) - 1] ?? 0;
   const conditionNumber = rank === 0 ? Infinity : s[0] / s[rank - 1];
