@@ -90,10 +90,14 @@ export interface MatrixExpr extends Node {
   readonly plain?: PlainMatrixEntries;
 }
 
-/** The entries of an all-number matrix: real values row by row, and each row's length. */
+/**
+ * The entries of a folded matrix: real values row by row, and each row's length; an entry that
+ * is an expression (`-k - h`) has NaN there and its tree in `expressions` (by entry index).
+ */
 export interface PlainMatrixEntries {
   values: Float64Array;
   rowLengths: Int32Array;
+  expressions: ReadonlyMap<number, Expr>;
 }
 
 export interface MatrixRow extends Node {

@@ -7,6 +7,11 @@
 // identical to what the expression rules would build; the model reads `plain.values` directly.
 // Anything unusual (a name, a unit, an imaginary literal, a comment, a missing or extra comma)
 // makes the scan give up, and the ordinary tokens and grammar take over, reporting any errors.
+// Entries that are short sums and products of names and numbers (`-k - h`, `2*k`, `g/m`) are
+// read too: the scan records their operands and operators, and the node builder below applies
+// the grammar's own precedence (expression → term → unary → power → primary in parser.ts), so
+// a model's parameter-dependent matrices fold as well. Anything else (brackets, calls, units,
+// two signs in a row, a keyword) still gives up.
 import type { Expr, MatrixExpr, MatrixRow, NumberExpr, PlainMatrixEntries } from './ast';
 import { defineLazyProperty } from './lazyProperty';
 import type { LineIndex } from './positions';
@@ -23,11 +28,31 @@ export function foldThresholdNow(): number {
   return foldThreshold;
 }
 
+/** Kinds of the lexemes of an expression entry, as recorded by the scan. */
+const LEXEME_NUMBER = 0;
+const LEXEME_NAME = 1;
+const OPERATORS = '+-*/^';
+
+/** Longest expression entry read by the scan (its tree then stays far below the depth limit). */
+const MAX_ENTRY_OPERANDS = 32;
+
+/**
+ * The names an entry may use: end offset of the name starting at `start`, or -1 when none starts
+ * there or it is a reserved word (tokens.ts supplies it, with the lexer's own name rule).
+ */
+export type NameEnd = (text: string, start: number) => number;
+
 /** What the scan found: entry values and where each entry's sign and digits are. */
 export interface PlainMatrixScan {
   /** Offset just past the closing `]`. */
   end: number;
+  /** Entry values; NaN for an expression entry (see `expressions`). */
   values: Float64Array;
+  /**
+   * Expression entries: their index in `values` and their lexemes as (kind, start, end) triples,
+   * kind LEXEME_NUMBER, LEXEME_NAME or an operator's index in OPERATORS plus 2.
+   */
+  expressions: { index: number; lexemes: number[] }[];
   /** Offset of the entry's `+`/`-`, or -1 when it has none. */
   signStarts: Int32Array;
   numberStarts: Int32Array;
@@ -47,6 +72,8 @@ const PLUS = 43;
 const MINUS = 45;
 const DOT = 46;
 const isDigit = (code: number): boolean => code >= 48 && code <= 57;
+const isBlank = (code: number): boolean => code === SPACE || code === TAB;
+const separatesEntries = (code: number): boolean => code === COMMA || code === SEMICOLON || code === LF || code === CR || code === CLOSE;
 const endsEntry = (code: number): boolean =>
   code === SPACE || code === TAB || code === COMMA || code === SEMICOLON || code === LF || code === CR || code === CLOSE;
 
@@ -124,12 +151,13 @@ function literalValue(text: string, start: number, end: number): number {
  * Scan `text[open] = '['` up to its `]`; undefined when the contents are not plain or hold
  * fewer than `minEntries` entries.
  */
-export function scanPlainMatrix(text: string, open: number, minEntries: number): PlainMatrixScan | undefined {
+export function scanPlainMatrix(text: string, open: number, minEntries: number, nameEnd?: NameEnd): PlainMatrixScan | undefined {
   // Growable typed buffers: plain arrays plus `Float64Array.from` cost four times as much here.
   let capacity = 256;
   let values = new Float64Array(capacity);
   let offsets = new Int32Array(3 * capacity); // sign start, number start, number end per entry
   let count = 0;
+  const expressions: PlainMatrixScan['expressions'] = [];
   const rowLengths: number[] = [];
   let rowLength = 0;
   let afterComma = false;
@@ -151,6 +179,7 @@ export function scanPlainMatrix(text: string, open: number, minEntries: number):
         return {
           end: i + 1,
           values: values.slice(0, count),
+          expressions,
           signStarts: strided(offsets, count, 0),
           numberStarts: strided(offsets, count, 1),
           numberEnds: strided(offsets, count, 2),
@@ -176,7 +205,14 @@ export function scanPlainMatrix(text: string, open: number, minEntries: number):
       while (text.charCodeAt(start) === SPACE || text.charCodeAt(start) === TAB) start++;
     }
     const end = numberEnd(text, start);
-    if (end < 0 || (end < length && !endsEntry(text.charCodeAt(end)))) return undefined;
+    let after = end;
+    while (after >= 0 && isBlank(text.charCodeAt(after))) after++;
+    const plainNumber = end >= 0 && (end >= length || endsEntry(text.charCodeAt(end))) && (after >= length || separatesEntries(text.charCodeAt(after)));
+    let expression: { next: number; lexemes: number[] } | undefined;
+    if (!plainNumber) {
+      expression = nameEnd ? scanEntryExpression(text, i, nameEnd) : undefined;
+      if (!expression) return undefined;
+    }
     if (count === capacity) {
       capacity *= 2;
       const grownValues = new Float64Array(capacity);
@@ -185,6 +221,18 @@ export function scanPlainMatrix(text: string, open: number, minEntries: number):
       const grownOffsets = new Int32Array(3 * capacity);
       grownOffsets.set(offsets);
       offsets = grownOffsets;
+    }
+    if (expression) {
+      values[count] = Number.NaN;
+      offsets[3 * count] = -1;
+      offsets[3 * count + 1] = i;
+      offsets[3 * count + 2] = i;
+      expressions.push({ index: count, lexemes: expression.lexemes });
+      count++;
+      rowLength++;
+      afterComma = false;
+      i = expression.next;
+      continue;
     }
     const magnitude = literalValue(text, start, end);
     values[count] = signStart >= 0 && code === MINUS ? -magnitude : magnitude;
@@ -195,6 +243,42 @@ export function scanPlainMatrix(text: string, open: number, minEntries: number):
     rowLength++;
     afterComma = false;
     i = end;
+  }
+  return undefined;
+}
+
+/**
+ * An entry `[±] operand (op operand)*` starting at `at`, operands numbers or names, ending where
+ * the entry ends (a separator, after blanks); undefined for anything else. Returns the offset of
+ * that separator and the lexemes. Only a leading sign: `2*-k` and `2^-1` go to the grammar.
+ */
+function scanEntryExpression(text: string, at: number, nameEnd: NameEnd): { next: number; lexemes: number[] } | undefined {
+  const lexemes: number[] = [];
+  let k = at;
+  const first = text.charCodeAt(k);
+  if (first === PLUS || first === MINUS) {
+    lexemes.push(2 + OPERATORS.indexOf(text[k]!), k, k + 1);
+    k++;
+    while (isBlank(text.charCodeAt(k))) k++;
+  }
+  for (let operands = 1; operands <= MAX_ENTRY_OPERANDS; operands++) {
+    const code = text.charCodeAt(k);
+    const isNumber = isDigit(code) || code === DOT;
+    const end = isNumber ? numberEnd(text, k) : nameEnd(text, k);
+    if (end < 0) return undefined;
+    lexemes.push(isNumber ? LEXEME_NUMBER : LEXEME_NAME, k, end);
+    k = end;
+    // A number must not run into a name (`2k`, `3j`), nor a name into a bracket or a quote.
+    const next = text.charCodeAt(k);
+    if (!(isBlank(next) || separatesEntries(next) || OPERATORS.includes(text[k] ?? ' '))) return undefined;
+    while (isBlank(text.charCodeAt(k))) k++;
+    if (k >= text.length) return undefined;
+    if (separatesEntries(text.charCodeAt(k))) return { next: k, lexemes };
+    const operator = OPERATORS.indexOf(text[k]!);
+    if (operator < 0) return undefined;
+    lexemes.push(2 + operator, k, k + 1);
+    k++;
+    while (isBlank(text.charCodeAt(k))) k++;
   }
   return undefined;
 }
@@ -212,18 +296,85 @@ function strided(offsets: Int32Array, count: number, field: number): Int32Array 
  */
 export function plainMatrixNode(scan: PlainMatrixScan, open: number, lines: LineIndex): MatrixExpr {
   const node = { kind: 'matrix', ...lines.span(open, scan.end) } as MatrixExpr;
-  const plain: PlainMatrixEntries = { values: scan.values, rowLengths: scan.rowLengths };
+  const expressions = new Map<number, Expr>();
+  for (const { index, lexemes } of scan.expressions) expressions.set(index, entryTree(lexemes, lines));
+  const plain: PlainMatrixEntries = { values: scan.values, rowLengths: scan.rowLengths, expressions };
   Object.defineProperty(node, 'plain', { value: plain, enumerable: false });
-  defineLazyProperty(node, 'rows', () => buildRows(scan, lines));
+  defineLazyProperty(node, 'rows', () => buildRows(scan, expressions, lines));
   return node;
 }
 
-function buildRows(scan: PlainMatrixScan, lines: LineIndex): MatrixRow[] {
+/**
+ * The tree the grammar builds for a scanned expression entry: `+`/`-` join terms, `*`/`/` join
+ * factors, a leading sign applies to the first term's first power, `^` joins from the right
+ * (the rules expression, term, unary and power of parser.ts, which the fold tests compare with).
+ */
+function entryTree(lexemes: number[], lines: LineIndex): Expr {
+  const text = lines.text;
+  let at = 0;
+  const kind = (): number => (at < lexemes.length ? lexemes[at]! : -1);
+  const isOperator = (...ops: string[]): boolean => kind() >= 2 && ops.includes(OPERATORS[kind() - 2]!);
+  const take = (): { op: string; start: number; end: number } => {
+    const lexeme = { op: OPERATORS[lexemes[at]! - 2] ?? '', start: lexemes[at + 1]!, end: lexemes[at + 2]! };
+    at += 3;
+    return lexeme;
+  };
+  const binary = (op: string, left: Expr, right: Expr): Expr => ({
+    kind: 'binary',
+    op: op as '+' | '-' | '*' | '/' | '^',
+    left,
+    right,
+    ...lines.span(left.startOffset, right.endOffset),
+  });
+  const primary = (): Expr => {
+    const isName = kind() === LEXEME_NAME;
+    const { start, end } = take();
+    const image = text.slice(start, end);
+    if (isName) return { kind: 'name', name: image, ...lines.span(start, end) };
+    return { kind: 'number', value: Number(image), imaginary: false, text: image, range: lines.range(start, end), startOffset: start, endOffset: end };
+  };
+  const power = (): Expr => {
+    const base = primary();
+    const links: { caret: string; operand: Expr }[] = [];
+    while (isOperator('^')) links.push({ caret: take().op, operand: primary() });
+    if (links.length === 0) return base;
+    let exponent = links[links.length - 1]!.operand;
+    for (let i = links.length - 2; i >= 0; i--) exponent = binary(links[i + 1]!.caret, links[i]!.operand, exponent);
+    return binary(links[0]!.caret, base, exponent);
+  };
+  const unary = (): Expr => {
+    if (!isOperator('+', '-')) return power();
+    const sign = take();
+    const operand = power();
+    return { kind: 'unary', op: sign.op as '+' | '-', operand, ...lines.span(sign.start, operand.endOffset) };
+  };
+  const term = (): Expr => {
+    let left = unary();
+    while (isOperator('*', '/')) {
+      const { op } = take();
+      left = binary(op, left, unary());
+    }
+    return left;
+  };
+  let tree = term();
+  while (isOperator('+', '-')) {
+    const { op } = take();
+    tree = binary(op, tree, term());
+  }
+  return tree;
+}
+
+function buildRows(scan: PlainMatrixScan, expressions: ReadonlyMap<number, Expr>, lines: LineIndex): MatrixRow[] {
   const rows: MatrixRow[] = [];
   let index = 0;
   for (const rowLength of scan.rowLengths) {
     const entries: Expr[] = [];
     for (let k = 0; k < rowLength; k++, index++) {
+      const expression = expressions.get(index);
+      if (expression) {
+        entries.push(expression);
+        continue;
+      }
       const start = scan.numberStarts[index];
       const end = scan.numberEnds[index];
       const text = lines.text.slice(start, end);

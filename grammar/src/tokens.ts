@@ -132,10 +132,21 @@ export const LCurly = createToken({ name: 'LCurly', pattern: /\{/ });
 export const RCurly = createToken({ name: 'RCurly', pattern: /\}/ });
 export const Percent = createToken({ name: 'Percent', pattern: /%/ });
 
+const NAME_AT = new RegExp(`[${NAME_START}][${NAME_REST}]*`, 'y');
+let reservedWords: ReadonlySet<string> | undefined;
+/** End of the name at `start` as the lexer reads it (longest match), or -1 if none or reserved. */
+function nameEndAt(text: string, start: number): number {
+  NAME_AT.lastIndex = start;
+  const name = NAME_AT.exec(text)?.[0];
+  reservedWords ??= new Set<string>(KEYWORDS);
+  return name === undefined || reservedWords.has(name) ? -1 : start + name.length;
+}
+
 /**
- * A whole large all-number matrix (`[1, 0; -2.5, 3]`, 64 entries or more) as one token, read
- * at the character level so 200×200 matrices neither lex 100,000 tokens nor run the
- * expression rules 40,000 times. Only the parse lexer has it; its payload is the scan.
+ * A whole large matrix of numbers and short name expressions (`[1, 0; -k, 2*k]`, 64 entries or
+ * more) as one token, read at the character level so 200×200 matrices neither lex 100,000
+ * tokens nor run the expression rules 40,000 times. Only the parse lexer has it; its payload is
+ * the scan.
  */
 export const PlainNumberMatrix = createToken({
   name: 'PlainNumberMatrix',
@@ -144,7 +155,7 @@ export const PlainNumberMatrix = createToken({
       // The lexer also tries this pattern at any offset while it skips bad characters (its error
       // recovery ignores start_chars_hint): only a `[` starts a matrix.
       if (text.charCodeAt(offset) !== 91 /* [ */) return null;
-      const scan = scanPlainMatrix(text, offset, foldThresholdNow());
+      const scan = scanPlainMatrix(text, offset, foldThresholdNow(), nameEndAt);
       if (!scan) return null;
       const match = [text.slice(offset, scan.end)] as CustomPatternMatcherReturn;
       match.payload = scan;

@@ -1,4 +1,5 @@
-// Large all-number matrices are read in one piece (see grammar/src/plainMatrix.ts); the tree
+// Large matrices of numbers and short name expressions are read in one piece (see
+// grammar/src/plainMatrix.ts); the tree
 // must be exactly what the grammar builds, the values exactly what JavaScript's own
 // string-to-number conversion gives, and anything unusual must fall back to the grammar.
 import fc from 'fast-check';
@@ -63,6 +64,62 @@ describe('folding of plain-number matrices', () => {
       }),
       { numRuns: 1500 },
     );
+  });
+
+  it('gives the grammar\'s tree and checked model for matrices of short name expressions (random entries)', () => {
+    // Operands, operators and blanks in any order: well-formed sums and products of names and
+    // numbers fold; everything else (two operators, a unit, a keyword, `2k`, a bracket) must fall
+    // back to the grammar with its diagnostics. Either way the result must be the grammar's.
+    const goodOperand = fc.constantFrom('k', 'h', 'g', 'θ', 'k2', 'pi', 'ms', 'x1', '0', '2', '2.5e-3', '.5', '1e3', '7.');
+    const badOperand = fc.constantFrom('step', '2k', '3j', '1e', '(k)', 'sin(k)', '5 ms', '2 %', "k'", '[1]');
+    const goodOperator = fc.constantFrom('+', '-', '*', '/', '^');
+    const badOperator = fc.constantFrom('', ' ', '--', '*-', '^-', '(', "'", '%', '=');
+    const blank = fc.constantFrom('', '', ' ', '  ', '\t');
+    const expression = (operand: fc.Arbitrary<string>, operator: fc.Arbitrary<string>) =>
+      fc
+        .tuple(fc.constantFrom('', '', '-', '+', '- '), operand, fc.array(fc.tuple(blank, operator, blank, operand), { maxLength: 3 }))
+        .map(([sign, first, rest]) => sign + first + rest.map(([before, op, after, next]) => before + op + after + next).join(''));
+    // Mostly well-formed entries, so that about a third of the matrices fold; the rest hold a bad one.
+    const entry = fc.oneof(
+      { arbitrary: expression(goodOperand, goodOperator), weight: 60 },
+      { arbitrary: expression(fc.oneof(goodOperand, badOperand), fc.oneof(goodOperator, badOperator)), weight: 1 },
+    );
+    const plant = (entries: string[], columns: number) => {
+      const rows: string[] = [];
+      for (let i = 0; i < entries.length; i += columns) rows.push(entries.slice(i, i + columns).join(', '));
+      return `plant p {\n  param k = 0.5\n  param h = 0.05\n  param g = 1\n  param θ = 2\n  param k2 = 3\n  param x1 = 4\n  states ${Array.from({ length: columns }, (_, i) => `s${i + 1}`).join(', ')}\n  inputs u\n  A = [${rows.join(';\n       ')}]\n  B = [${Array(columns).fill('1').join('; ')}]\n}\n`;
+    };
+    let foldedCount = 0;
+    fc.assert(
+      fc.property(fc.integer({ min: 2, max: 6 }), fc.array(entry, { minLength: 36, maxLength: 36 }), (columns, entries) => {
+        const text = plant(entries, columns);
+        const folded = parsePlantText(text, { foldMinEntries: 1 });
+        const A = ((folded.document.declarations[0] as PlantDecl).items.find((item) => item.kind === 'matrixAssign') as MatrixAssign | undefined)?.value;
+        if (A?.kind === 'matrix' && A.plain && A.plain.expressions.size > 0) foldedCount++;
+        expect(folded).toEqual(parsePlantText(text, { foldMinEntries: Number.POSITIVE_INFINITY }));
+        const checked = checkDocument(folded);
+        const grammarChecked = checkDocument(parsePlantText(text, { foldMinEntries: Number.POSITIVE_INFINITY }));
+        expect(JSON.parse(JSON.stringify(checked))).toEqual(JSON.parse(JSON.stringify(grammarChecked)));
+      }),
+      { numRuns: 400 },
+    );
+    // The property says something only if expression matrices did fold.
+    expect(foldedCount).toBeGreaterThan(40);
+  });
+
+  it('folds a parameter-dependent matrix (the rod of the benchmark) and reads its entries from the expressions', () => {
+    const row = (i: number) => Array.from({ length: 10 }, (_, j) => (i === j ? (i === 0 ? '-k - h' : '-2*k') : Math.abs(i - j) === 1 ? 'k' : '0')).join(', ');
+    const text = `plant rod {\n  param k = 0.5\n  param h = 0.05\n  states ${Array.from({ length: 10 }, (_, i) => `T${i + 1}`).join(', ')}\n  inputs q\n  A = [${Array.from({ length: 10 }, (_, i) => row(i)).join(';\n       ')}]\n  B = [${['1', ...Array(9).fill('0')].join('; ')}]\n}\n`;
+    const parsed = parsePlantText(text);
+    const matrix = ((parsed.document.declarations[0] as PlantDecl).items.find((item) => item.kind === 'matrixAssign') as MatrixAssign).value;
+    if (matrix.kind !== 'matrix' || !matrix.plain) throw new Error('expected a folded matrix');
+    expect(matrix.plain.expressions.size).toBe(28); // 10 diagonal and 18 neighbour entries
+    const A = checkDocument(parsed).plants[0].A;
+    // Hand values: −k − h = −0.55 in the corner, −2k = −1 on the diagonal, k = 0.5 beside it.
+    expect(A[0][0]).toBeCloseTo(-0.55, 15);
+    expect(A[4][4]).toBe(-1);
+    expect(A[4][5]).toBe(0.5);
+    expect(A[4][7]).toBe(0);
   });
 
   it('merges adjacent bad characters as the grammar does, also where a plain matrix could follow (fast-check counterexample)', () => {

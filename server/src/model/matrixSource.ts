@@ -19,7 +19,7 @@ export interface SourcedMatrix {
 }
 
 export function evaluateSourcedMatrix(expr: Expr, scope: ValueScope, out: Diagnostic[]): SourcedMatrix | null {
-  if (expr.kind === 'matrix' && expr.plain) return plainSourcedMatrix(expr, expr.plain);
+  if (expr.kind === 'matrix' && expr.plain) return plainSourcedMatrix(expr, expr.plain, scope, out);
   if (expr.kind === 'matrix') {
     const rows = expr.rows.filter((row) => row.entries.length > 0);
     const values = literalEntries(expr, rows, scope, out);
@@ -93,15 +93,20 @@ function isNumberLiteral(entry: Expr): boolean {
 }
 
 /**
- * An all-number literal read in one piece: values straight from the scan; row and entry
+ * A literal read in one piece: numbers straight from the scan, expression entries evaluated in
+ * entry order (as the literal path does, so diagnostics come in the same order); row and entry
  * ranges (which build the matrix's syntax nodes) only when a diagnostic asks for them.
  */
-function plainSourcedMatrix(expr: MatrixExpr, plain: PlainMatrixEntries): SourcedMatrix {
-  const rows: number[][] = [];
+function plainSourcedMatrix(expr: MatrixExpr, plain: PlainMatrixEntries, scope: ValueScope, out: Diagnostic[]): SourcedMatrix {
+  const rows: (number | null)[][] = [];
+  const { values, expressions } = plain;
   let index = 0;
   for (const rowLength of plain.rowLengths) {
-    const row = new Array<number>(rowLength);
-    for (let k = 0; k < rowLength; k++) row[k] = plain.values[index++]!;
+    const row = new Array<number | null>(rowLength);
+    for (let k = 0; k < rowLength; k++, index++) {
+      const expression = expressions.size > 0 ? expressions.get(index) : undefined;
+      row[k] = expression ? realEntry(expression, scope, out) : values[index]!;
+    }
     rows.push(row);
   }
   const source = { range: expr.range } as MatrixSource;
