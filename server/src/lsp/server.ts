@@ -86,7 +86,8 @@ interface DocumentState {
   /** Slow-only diagnostics of the last analysed version, moved along with every later edit. */
   carried: Diagnostic[];
   fastTimer: ReturnType<typeof setTimeout> | null;
-  slowTimer: ReturnType<typeof setTimeout> | null;
+  /** Cancels the scheduled slow analysis (a timer, or an immediate without debounce). */
+  slowTimer: (() => void) | null;
   /** How long the last fast check took and when it ended (ms), to coalesce bursts on big models. */
   fastDuration: number;
   fastEnded: number;
@@ -169,7 +170,7 @@ export function startServer(connection: Connection, options: ServerOptions = {})
 
   function stopTimers(state: DocumentState): void {
     if (state.fastTimer) clearTimeout(state.fastTimer);
-    if (state.slowTimer) clearTimeout(state.slowTimer);
+    state.slowTimer?.();
     state.fastTimer = null;
     state.slowTimer = null;
   }
@@ -246,12 +247,20 @@ export function startServer(connection: Connection, options: ServerOptions = {})
   }
 
   function scheduleSlow(state: DocumentState): void {
-    if (state.slowTimer) clearTimeout(state.slowTimer);
-    // Even without debounce, wait one turn: an edit already queued then replaces this one cheaply.
-    state.slowTimer = setTimeout(() => {
+    state.slowTimer?.();
+    const start = () => {
       state.slowTimer = null;
       if (documents.get(state.document.uri) === state) void analyseSlow(state, state.fastVersion, state.fast.text);
-    }, Math.max(0, settings.debounceMs));
+    };
+    // Even without debounce, wait one turn: an edit already queued then replaces this one cheaply.
+    // That turn is an immediate, not a zero timeout, which Node stretches to a millisecond.
+    if (settings.debounceMs > 0) {
+      const timer = setTimeout(start, settings.debounceMs);
+      state.slowTimer = () => clearTimeout(timer);
+    } else {
+      const immediate = setImmediate(start);
+      state.slowTimer = () => clearImmediate(immediate);
+    }
   }
 
   /** The slow analyses of `text` (version `version`); published only if the document is still at that version and its fast check too. */
