@@ -1314,7 +1314,7 @@ function exceedsDepth(root: Expr): boolean {
         for (const arg of node.args) stack.push([arg, depth + 1]);
         break;
       case 'matrix':
-        if (node.plain) break; // numbers only: depth 2 at most
+        if (node.plain) break; // folded: entries of at most 32 operands, far below the limit
         for (const row of node.rows) {
           for (const entry of row.entries) {
             if (entry.kind !== 'number' && entry.kind !== 'name') stack.push([entry, depth + 1]);
