@@ -1,17 +1,16 @@
-// Large all-number matrices, read at the character level. A 200-state plant has a 40,000-entry
-// A matrix; lexing every number, comma and row break and building eight objects per entry
-// dominated parse time. When the bracket contents are only signed real number literals,
-// commas, spaces and row breaks, and are well formed, the parse lexer produces one
-// `PlainNumberMatrix` token for the whole bracket (see tokens.ts) carrying the scanned values
-// and offsets. The parser turns it into a `MatrixExpr` whose `rows` are built on first use,
-// identical to what the expression rules would build; the model reads `plain.values` directly.
-// Anything unusual (a name, a unit, an imaginary literal, a comment, a missing or extra comma)
-// makes the scan give up, and the ordinary tokens and grammar take over, reporting any errors.
-// Entries that are short sums and products of names and numbers (`-k - h`, `2*k`, `g/m`) are
-// read too: the scan records their operands and operators, and the node builder below applies
-// the grammar's own precedence (expression → term → unary → power → primary in parser.ts), so
-// a model's parameter-dependent matrices fold as well. Anything else (brackets, calls, units,
-// two signs in a row, a keyword) still gives up.
+// Large matrices, read at the character level. A 200-state plant has a 40,000-entry A matrix;
+// lexing every number, comma and row break and building eight objects per entry dominated parse
+// time. When the bracket contents are only signed real number literals and short sums and
+// products of names and numbers (`-k - h`, `2*k`, `g/m`), separated by commas, spaces and row
+// breaks, and are well formed, the parse lexer produces one `PlainNumberMatrix` token for the
+// whole bracket (see tokens.ts) carrying the scanned values, offsets and expression lexemes. The
+// parser turns it into a `MatrixExpr` whose `rows` are built on first use, identical to what the
+// expression rules would build: expression entries get their trees at once, from the node
+// builder below, which applies the grammar's own precedence (expression → term → unary → power →
+// primary in parser.ts). The model reads `plain.values` directly and evaluates only those trees.
+// Anything unusual (brackets, calls, a unit, an imaginary literal, two signs in a row, a reserved
+// word, a comment, a missing or extra comma) makes the scan give up, and the ordinary tokens and
+// grammar take over, reporting any errors.
 import type { Expr, MatrixExpr, MatrixRow, NumberExpr, PlainMatrixEntries } from './ast';
 import { defineLazyProperty } from './lazyProperty';
 import type { LineIndex } from './positions';
