@@ -6,6 +6,7 @@ import { describe, expect, it } from 'vitest';
 import { analyzeFastCheck, checkText, WARM_START_FROM_STATES } from '../../server/src/analyze';
 import type { Rows } from '../../server/src/model/types';
 import type { RiccatiStart } from '../../server/src/control/lqr';
+import { packRiccatiStart, runSlowAnalysis, unpackRiccatiStart } from '../../server/src/lsp/slowAnalysis';
 import { heatedRodModel as rodModel } from './heatedRod';
 
 const lqrDetails = (analysis: ReturnType<typeof analyzeFastCheck>) => analysis.controllers[0].details.lqr as { warmStarted: boolean; conditionEstimate: number };
@@ -76,6 +77,32 @@ describe('warm-started LQR designs between document versions', () => {
     const K = warm.controllers[0].K![0];
     const reference = SCIPY_ROD40_GAIN;
     for (const [index, value] of reference) expect(Math.abs(K[index] - value)).toBeLessThan(1e-9 * Math.max(1, Math.abs(value)));
+  });
+});
+
+describe('warm starts crossing threads (lsp/slowAnalysis.ts packs X into one Float64Array)', () => {
+  it('the packed start survives structured clone bit for bit, and the next version warm-starts from it exactly as in one thread', () => {
+    const n = WARM_START_FROM_STATES;
+    const first = runSlowAnalysis(rodModel(n, '0.5'), {});
+    const packed = first.riccatiStarts.get('warm')!;
+    expect(packed.X).toBeInstanceOf(Float64Array);
+    const crossed = structuredClone(first.riccatiStarts); // to the main thread and back with the next job
+    const unpacked = unpackRiccatiStart(crossed.get('warm')!)!;
+    const direct = new Map<string, RiccatiStart>();
+    analyzeFastCheck(checkText(rodModel(n, '0.5')), {}, { riccatiStarts: direct });
+    // The same doubles as the solver's own X (Object.is also tells −0 from +0).
+    direct.get('warm')!.X.forEach((row, i) => row.forEach((value, j) => expect(Object.is(unpacked.X[i][j], value)).toBe(true)));
+    const nudged = rodModel(n, '0.5001');
+    const acrossThreads = runSlowAnalysis(nudged, {}, { riccatiStarts: crossed });
+    const inOneThread = analyzeFastCheck(checkText(nudged), {}, { riccatiStarts: direct });
+    expect(lqrDetails({ controllers: acrossThreads.controllers } as ReturnType<typeof analyzeFastCheck>).warmStarted).toBe(true);
+    expect(acrossThreads.controllers[0].K).toEqual(inOneThread.controllers[0].K);
+  });
+
+  it('a malformed start is dropped (the design starts afresh) instead of failing', () => {
+    expect(unpackRiccatiStart({ order: 3, X: new Float64Array(8) })).toBeUndefined();
+    expect(unpackRiccatiStart({ order: 2, X: [1, 0, 0, 1] as unknown as Float64Array })).toBeUndefined();
+    expect(unpackRiccatiStart(packRiccatiStart({ X: [[2, 1], [1, 3]] }))).toEqual({ X: [[2, 1], [1, 3]] });
   });
 });
 

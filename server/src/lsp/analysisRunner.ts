@@ -13,8 +13,7 @@ import { MessageChannel, Worker } from 'node:worker_threads';
 import { ANSWERS_POSTED, HELPER_BUSY, HELPER_CELLS, HELPER_GONE } from './analysisHelper';
 import { traceMark } from './trace';
 import type { AnalysisSettings } from '../control/settings';
-import type { RiccatiStart } from '../control/lqr';
-import { runSlowAnalysis, type AnalysisJob, type AnalysisReply, type SlowResult } from './slowAnalysis';
+import { runSlowAnalysis, type AnalysisJob, type AnalysisReply, type PackedRiccatiStart, type SlowResult } from './slowAnalysis';
 
 // The analyses allocate many short-lived rows; a larger young generation means fewer scavenges
 // (about 10 % off a 100-state analysis, measured with test/bench/lsp.mjs).
@@ -55,7 +54,7 @@ export class AnalysisRunner {
    * Per document, the Riccati solutions of its last analysed version: the next job's warm starts.
    * Kept here, not in the worker, because a newer edit terminates the worker.
    */
-  private readonly riccatiStarts = new Map<string, Map<string, RiccatiStart>>();
+  private readonly riccatiStarts = new Map<string, Map<string, PackedRiccatiStart>>();
   private nextJob = 1;
   private disposed = false;
 
