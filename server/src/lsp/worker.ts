@@ -55,5 +55,6 @@ if ((workerData as { role?: string } | null)?.role === 'helper') {
       // A report held something structured clone refuses (a function): send a plain copy.
       parentPort!.postMessage(cloneable(reply));
     }
+    traceMark('coordinator: reply posted');
   });
 }
