@@ -133,13 +133,12 @@ export const RCurly = createToken({ name: 'RCurly', pattern: /\}/ });
 export const Percent = createToken({ name: 'Percent', pattern: /%/ });
 
 const NAME_AT = new RegExp(`[${NAME_START}][${NAME_REST}]*`, 'y');
-let reservedWords: ReadonlySet<string> | undefined;
+const RESERVED_WORDS: ReadonlySet<string> = new Set<string>(KEYWORDS);
 /** End of the name at `start` as the lexer reads it (longest match), or -1 if none or reserved. */
 function nameEndAt(text: string, start: number): number {
   NAME_AT.lastIndex = start;
   const name = NAME_AT.exec(text)?.[0];
-  reservedWords ??= new Set<string>(KEYWORDS);
-  return name === undefined || reservedWords.has(name) ? -1 : start + name.length;
+  return name === undefined || RESERVED_WORDS.has(name) ? -1 : start + name.length;
 }
 
 /**

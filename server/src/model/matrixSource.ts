@@ -98,16 +98,14 @@ function isNumberLiteral(entry: Expr): boolean {
  * ranges (which build the matrix's syntax nodes) only when a diagnostic asks for them.
  */
 function plainSourcedMatrix(expr: MatrixExpr, plain: PlainMatrixEntries, scope: ValueScope, out: Diagnostic[]): SourcedMatrix {
+  const entries: (number | null)[] = Array.from(plain.values);
+  // The expression entries are kept in scan order, so this is row-major order.
+  for (const [index, expression] of plain.expressions) entries[index] = realEntry(expression, scope, out);
   const rows: (number | null)[][] = [];
-  const { values, expressions } = plain;
   let index = 0;
   for (const rowLength of plain.rowLengths) {
-    const row = new Array<number | null>(rowLength);
-    for (let k = 0; k < rowLength; k++, index++) {
-      const expression = expressions.size > 0 ? expressions.get(index) : undefined;
-      row[k] = expression ? realEntry(expression, scope, out) : values[index]!;
-    }
-    rows.push(row);
+    rows.push(entries.slice(index, index + rowLength));
+    index += rowLength;
   }
   const source = { range: expr.range } as MatrixSource;
   const nonEmptyRows = () => expr.rows.filter((row) => row.entries.length > 0);
